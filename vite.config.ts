@@ -1,0 +1,24 @@
+/// <reference types="vitest/config" />
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+const apiPort = Number(process.env.PORT ?? 8470);
+
+export default defineConfig({
+  plugins: [react(), tailwindcss()],
+  build: { outDir: 'dist/web', emptyOutDir: true, chunkSizeWarningLimit: 900 },
+  server: {
+    proxy: {
+      '/api': `http://127.0.0.1:${apiPort}`,
+      '/socket.io': { target: `http://127.0.0.1:${apiPort}`, ws: true },
+    },
+  },
+  test: {
+    include: ['tests/**/*.test.ts'],
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
+    pool: 'forks',
+    maxWorkers: 2,
+  },
+});
