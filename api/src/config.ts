@@ -1,0 +1,64 @@
+import { z } from 'zod';
+
+/**
+ * The only reader of process.env for the API and ingest processes. The start script
+ * fills DATABASE_URL, JWT_SECRET and SERVICE_MQTT_PASSWORD for the private services.
+ */
+const schema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('production'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(8470),
+  PUBLIC_URL: z.string().url().optional(),
+  DATABASE_URL: z.string().regex(/^mariadb:\/\//, 'must start with mariadb://'),
+  MQTT_URL: z.string().regex(/^mqtts?:\/\//, 'must start with mqtt:// or mqtts://').default('mqtt://127.0.0.1:8472'),
+  SERVICE_MQTT_USER: z.string().default('ferrisight-service'),
+  SERVICE_MQTT_PASSWORD: z.string().min(16).optional(),
+  SMTP_URL: z.string().default('smtp://127.0.0.1:8473'),
+  MAIL_FROM: z.string().default('Ferrisight <ferrisight@localhost>'),
+  JWT_SECRET: z.string().min(32, 'must be at least 32 characters'),
+  JWT_TTL_S: z.coerce.number().int().min(60).default(8 * 3600),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  WEB_DIST: z.string().default('dist/web'),
+  RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(90),
+  INGEST_CLIENT_ID: z.string().default('ferrisight-ingest-1'),
+  INGEST_TOPIC_FILTER: z.string().default('ferrisight/v1/#'),
+  // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).
+  MQTT_PORT: z.coerce.number().int().min(1).max(65535).default(8472),
+  MQTT_MAX_CONNECTIONS: z.coerce.number().int().min(1).default(2000),
+  DATA_DIR: z.string().default('.data'),
+  /** 'pipelined' acks after commit but keeps reading while a flush runs; 'serial' holds mqtt.js per message. */
+  INGEST_ACK_MODE: z.enum(['pipelined', 'serial']).default('pipelined'),
+  INGEST_FLUSH_MS: z.coerce.number().int().min(1).max(1000).default(25),
+  INGEST_FLUSH_MAX_READINGS: z.coerce.number().int().min(1).max(20_000).default(2000),
+});
+
+export type Config = z.infer<typeof schema>;
+
+let cached: Config | undefined;
+
+/** Parses the environment once; exits with the list of bad keys when it does not fit. */
+export function config(): Config {
+  if (cached) return cached;
+  const parsed = schema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+/** Ingest processes (broker, worker) sign no tokens, so they do not need JWT_SECRET. */
+export function ingestConfig(): Omit<Config, 'JWT_SECRET'> {
+  const parsed = schema.omit({ JWT_SECRET: true }).safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  return parsed.data;
+}
+
+/** Tests build their own app against their own database. */
+export function overrideConfig(values: Partial<Config>): void {
+  cached = { ...config(), ...values };
+}

@@ -1,0 +1,35 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { AppError } from '../../lib/app-error.ts';
+import { requireRole } from '../../middleware/auth.ts';
+import { body } from '../../middleware/validate.ts';
+import type { Bus } from '../../realtime/bus.ts';
+
+export const SIM_FAULTS = ['fouling', 'flatline', 'noisy', 'comms-loss', 'feed-upset', 'pump-trip'] as const;
+const simCommandSchema = z.object({
+  fault: z.enum(SIM_FAULTS),
+  probeTag: z.string().trim().min(1).max(40),
+  action: z.enum(['start', 'clear']),
+});
+
+/** Admin-only: simulator faults for demos and training, ingest health. */
+export function adminRouter(bus?: Bus): Router {
+  const r = Router();
+  r.use(requireRole('admin'));
+  const needBus = () => {
+    if (!bus?.connected) throw new AppError(503, 'broker-unavailable', 'The broker is not reachable from the API right now');
+    return bus;
+  };
+  r.get('/simulator', (_req, res) => {
+    res.json({ faults: bus?.simState ?? [] });
+  });
+  r.post('/simulator', async (req, res) => {
+    const cmd = body(simCommandSchema, req);
+    await needBus().simCommand(cmd);
+    res.status(202).json({ accepted: cmd });
+  });
+  r.get('/ingest-health', (_req, res) => {
+    res.json(bus?.ingestHealth ?? { messages: 0, readings: 0, deadLetters: 0, conflicts: 0, duplicates: 0, lagMs: null, batchP50Ms: null, batchP99Ms: null, updatedAt: null });
+  });
+  return r;
+}

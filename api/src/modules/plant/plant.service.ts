@@ -1,0 +1,26 @@
+import type { SiteSummary, TankSummary, TrendQuery, TrendResponse } from '../../../../shared/schemas/plant.ts';
+import { Site } from '../../db/models.ts';
+import { AppError } from '../../lib/app-error.ts';
+import { plantRepository } from './plant.repository.ts';
+import { queryTrend } from './trend.repository.ts';
+
+export const plantService = {
+  tree: () => plantRepository.tree(),
+
+  async tank(id: number): Promise<{ tank: TankSummary; site: Omit<SiteSummary, 'circuits'>; circuit: { id: number; tag: string; name: string } } | null> {
+    for (const s of await plantRepository.tree()) {
+      for (const c of s.circuits) {
+        const tank = c.tanks.find((t) => t.id === id);
+        if (tank) return { tank, site: { id: s.id, tag: s.tag, name: s.name, timeZone: s.timeZone }, circuit: { id: c.id, tag: c.tag, name: c.name } };
+      }
+    }
+    return null;
+  },
+
+  async trend(tankId: number, q: TrendQuery): Promise<TrendResponse> {
+    const probe = await plantRepository.probeOfTank(tankId);
+    if (!probe) throw AppError.notFound('Tank or its probe');
+    const result = await queryTrend(Site.sequelize!, probe.id, new Date(q.from), new Date(q.to), q.maxPoints, probe.intervalS);
+    return { tankId, ...result };
+  },
+};

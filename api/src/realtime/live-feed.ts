@@ -1,0 +1,58 @@
+import type { TankLive } from '../../../shared/schemas/readings.ts';
+
+export type Freshness = { probeId: number; tankId: number; stale: boolean; lastTs: string | null };
+type ProbeMeta = { probeId: number; tankId: number; siteTag: string; intervalS: number };
+
+/**
+ * Coalesces readings to at most one per tank per flush and tracks freshness: a probe is stale
+ * after three expected intervals without a reading.
+ */
+export class LiveFeed {
+  private pending = new Map<number, TankLive>();
+  private lastSeen = new Map<number, number>();
+  private stale = new Map<number, boolean>();
+  private probes = new Map<number, ProbeMeta>();
+
+  setProbes(list: ProbeMeta[]): void {
+    this.probes = new Map(list.map((p) => [p.probeId, p]));
+  }
+
+  push(readings: TankLive[]): void {
+    for (const r of readings) {
+      const prev = this.pending.get(r.tankId);
+      if (!prev || prev.ts <= r.ts) this.pending.set(r.tankId, r);
+      const t = Date.parse(r.ts);
+      if (t > (this.lastSeen.get(r.probeId) ?? 0)) this.lastSeen.set(r.probeId, t);
+    }
+  }
+
+  /** Latest value per tank since the last call, grouped by site tag. */
+  drain(): Map<string, TankLive[]> {
+    const bySite = new Map<string, TankLive[]>();
+    for (const r of this.pending.values()) {
+      const site = this.probes.get(r.probeId)?.siteTag;
+      if (!site) continue;
+      bySite.set(site, [...(bySite.get(site) ?? []), r]);
+    }
+    this.pending.clear();
+    return bySite;
+  }
+
+  /** Freshness changes since the last call. */
+  freshnessChanges(nowMs: number): Array<Freshness & { siteTag: string }> {
+    const out: Array<Freshness & { siteTag: string }> = [];
+    for (const p of this.probes.values()) {
+      const last = this.lastSeen.get(p.probeId);
+      const isStale = last === undefined || nowMs - last > 3 * p.intervalS * 1000;
+      if (this.stale.get(p.probeId) !== isStale) {
+        this.stale.set(p.probeId, isStale);
+        out.push({ probeId: p.probeId, tankId: p.tankId, siteTag: p.siteTag, stale: isStale, lastTs: last ? new Date(last).toISOString() : null });
+      }
+    }
+    return out;
+  }
+
+  seed(probeId: number, lastTs: number): void {
+    this.lastSeen.set(probeId, lastTs);
+  }
+}

@@ -1,0 +1,81 @@
+import type { Server as HttpServer } from 'node:http';
+import { Server } from 'socket.io';
+import { logger } from '../lib/logger.ts';
+import { sessionEvents } from '../lib/session-events.ts';
+import type { AuthService } from '../modules/auth/auth.service.ts';
+import { SESSION_COOKIE } from '../modules/auth/tokens.ts';
+import { plantRepository } from '../modules/plant/plant.repository.ts';
+import type { Bus } from './bus.ts';
+import { LiveFeed } from './live-feed.ts';
+
+function cookieValue(header: string | undefined, name: string): string | undefined {
+  for (const part of (header ?? '').split(';')) {
+    const [k, ...v] = part.trim().split('=');
+    if (k === name) return decodeURIComponent(v.join('='));
+  }
+  return undefined;
+}
+
+/**
+ * socket.io on the API server: the same session as HTTP (cookie, or `auth.token` for scripts),
+ * rooms per site and per user, disconnected when the token expires or the user is disabled.
+ */
+export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus) {
+  const io = new Server(httpServer, { serveClient: false, cors: { origin: false } });
+  const feed = new LiveFeed();
+
+  io.use(async (socket, next) => {
+    const token = (socket.handshake.auth?.token as string | undefined) ?? cookieValue(socket.handshake.headers.cookie, SESSION_COOKIE);
+    const user = await auth.authenticate(token).catch(() => null);
+    if (!user) return next(new Error('unauthorized'));
+    socket.data.user = user;
+    next();
+  });
+
+  io.on('connection', async (socket) => {
+    const user = socket.data.user as { id: number; expMs: number };
+    socket.join(`user:${user.id}`);
+    const sites = new Set((await plantRepository.probeIntervals()).map((p) => p.siteTag));
+    for (const s of sites) socket.join(`site:${s}`);
+    const timer = setTimeout(() => {
+      socket.emit('session:expired');
+      socket.disconnect(true);
+    }, Math.max(0, user.expMs - Date.now()));
+    socket.on('disconnect', () => clearTimeout(timer));
+  });
+
+  const refreshProbes = async () => {
+    try {
+      feed.setProbes(await plantRepository.probeIntervals());
+    } catch (err) {
+      logger.warn({ err: (err as Error).message }, 'probe list refresh failed');
+    }
+  };
+  void refreshProbes();
+  const probeTimer = setInterval(refreshProbes, 60_000);
+  bus?.on('latest', (readings) => feed.push(readings));
+  const flushTimer = setInterval(() => {
+    for (const [site, readings] of feed.drain()) io.to(`site:${site}`).emit('tank:latest', readings);
+    for (const f of feed.freshnessChanges(Date.now())) {
+      const { siteTag, ...payload } = f;
+      io.to(`site:${siteTag}`).emit('probe:freshness', payload);
+    }
+  }, 1000);
+
+  const onRevoked = (userId: number) => {
+    io.to(`user:${userId}`).emit('session:expired');
+    io.in(`user:${userId}`).disconnectSockets(true);
+  };
+  sessionEvents.on('revoked', onRevoked);
+
+  return {
+    io,
+    feed,
+    async close() {
+      sessionEvents.off('revoked', onRevoked);
+      clearInterval(probeTimer);
+      clearInterval(flushTimer);
+      await io.close();
+    },
+  };
+}

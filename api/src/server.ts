@@ -1,0 +1,47 @@
+import http from 'node:http';
+import { createApp } from './app.ts';
+import { config } from './config.ts';
+import { initModels } from './db/models.ts';
+import { createSequelize } from './db/sequelize.ts';
+import { logger } from './lib/logger.ts';
+import { createAuthService } from './modules/auth/auth.service.ts';
+import { Bus } from './realtime/bus.ts';
+import { attachRealtime } from './realtime/socket.ts';
+
+/** API process: HTTP API, the built web app and socket.io on one port. */
+async function main(): Promise<void> {
+  const cfg = config();
+  const sequelize = createSequelize(cfg.DATABASE_URL);
+  initModels(sequelize);
+  await sequelize.authenticate();
+
+  const auth = createAuthService({ jwtSecret: cfg.JWT_SECRET, ttlS: cfg.JWT_TTL_S });
+  const bus = cfg.SERVICE_MQTT_PASSWORD ? new Bus(cfg.MQTT_URL, cfg.SERVICE_MQTT_USER, cfg.SERVICE_MQTT_PASSWORD) : undefined;
+  if (!bus) logger.warn('SERVICE_MQTT_PASSWORD unset: no live values from the broker');
+  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, secureCookie: cfg.PUBLIC_URL?.startsWith('https://') ?? false });
+  const server = http.createServer(app);
+  const realtime = attachRealtime(server, auth, bus);
+
+  server.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code === 'EADDRINUSE') logger.fatal(`Port ${cfg.PORT} is taken: set PORT to a free port`);
+    else logger.fatal({ err }, 'server error');
+    process.exit(1);
+  });
+  server.listen(cfg.PORT, cfg.HOST, () => logger.info(`API listening on http://${cfg.HOST}:${cfg.PORT}`));
+
+  const stop = async () => {
+    logger.info('stopping');
+    await realtime.close();
+    server.close();
+    await bus?.close();
+    await sequelize.close();
+    process.exit(0);
+  };
+  process.once('SIGTERM', stop);
+  process.once('SIGINT', stop);
+}
+
+main().catch((err) => {
+  logger.fatal({ err: err.message }, 'API failed to start');
+  process.exit(1);
+});

@@ -1,0 +1,63 @@
+/** Seeds the demo plant, users and simulator device, only when the database has no users. */
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import bcrypt from 'bcryptjs';
+import { referenceById } from '../shared/redox/index.ts';
+import type { Role } from '../shared/schemas/auth.ts';
+import { Calibration, Circuit, Device, Probe, Site, Tank, User, initModels } from '../api/src/db/models.ts';
+import { createSequelize } from '../api/src/db/sequelize.ts';
+import { BCRYPT_COST } from '../api/src/modules/auth/auth.service.ts';
+import { DEMO_CIRCUITS, DEMO_DEVICE, DEMO_SITE } from './seed/demo-plant.ts';
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+type DemoUser = { role: Role; email: string; name: string; password: string };
+
+export async function seedDemo(databaseUrl: string, simDevicePassword: string): Promise<boolean> {
+  const sequelize = createSequelize(databaseUrl, 2);
+  initModels(sequelize);
+  try {
+    if ((await User.count()) > 0) return false;
+    const users: DemoUser[] = JSON.parse(fs.readFileSync(path.join(here, 'demo-users.json'), 'utf8'));
+    const ref = referenceById('agcl-3m');
+    const installedAt = new Date(Date.now() - 20 * 86_400_000);
+    await sequelize.transaction(async (transaction) => {
+      for (const u of users) {
+        await User.create({ email: u.email, name: u.name, role: u.role, passwordHash: await bcrypt.hash(u.password, BCRYPT_COST), tokensValidAfter: new Date(0) }, { transaction });
+      }
+      const site = await Site.create(DEMO_SITE, { transaction });
+      await Device.create({ siteId: site.id, username: DEMO_DEVICE.username, passwordHash: await bcrypt.hash(simDevicePassword, BCRYPT_COST) }, { transaction });
+      for (const [ci, c] of DEMO_CIRCUITS.entries()) {
+        const circuit = await Circuit.create({ siteId: site.id, tag: c.tag, name: c.name, position: ci }, { transaction });
+        for (const [ti, t] of c.tanks.entries()) {
+          const tank = await Tank.create({
+            circuitId: circuit.id, tag: t.tag, name: t.name, position: ti, volumeM3: t.volumeM3,
+            bandLow: t.band[0], bandHigh: t.band[1], bandTarget: t.band[2],
+          }, { transaction });
+          await Probe.create({
+            tankId: tank.id, tag: `${t.tag}-ORP`, referenceId: ref.id, referenceE25V: ref.e25V, referenceCoeffVPerK: ref.coeffVPerK,
+            toleranceMv: 10, intervalS: 5, installedAt,
+          }, { transaction });
+          await Calibration.create({
+            tankId: tank.id, version: 1, formalPotentialV: c.formalPotentialV, formalCoeffVPerK: c.formalCoeffVPerK,
+            validFrom: installedAt, reason: 'Commissioning calibration from the first assay campaign (demo)', createdBy: null,
+          }, { transaction });
+        }
+      }
+    });
+    return true;
+  } finally {
+    await sequelize.close();
+  }
+}
+
+if (process.argv[1] === fileURLToPath(import.meta.url)) {
+  const url = process.env.DATABASE_URL;
+  const pw = process.env.SIM_DEVICE_PASSWORD;
+  if (!url || !pw) {
+    process.stderr.write('DATABASE_URL and SIM_DEVICE_PASSWORD must be set\n');
+    process.exit(1);
+  }
+  const seeded = await seedDemo(url, pw);
+  process.stdout.write(seeded ? 'seed: demo plant Kestrel Flats created\n' : 'seed: database already has data, left as is\n');
+}
