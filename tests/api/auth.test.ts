@@ -131,7 +131,7 @@ describe('passwords', () => {
 
 describe('conventions', () => {
   it('when a route does not exist, then 404 JSON', async () => {
-    const res = await request(t.app).get('/api/nothing-here').set('Cookie', t.cookies.operator);
+    const res = await request(t.app).get('/api/nothing-here').set('Cookie', t.cookies.admin);
     expect(res.status).toBe(404);
     expect(res.body.status).toBe(404);
   });

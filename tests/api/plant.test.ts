@@ -67,13 +67,13 @@ describe('trend', () => {
     const plant = (await get('/api/plant')).body;
     const tank = plant.sites[0].circuits[0].tanks[2];
     const start = new Date(Date.UTC(2026, 10, 1));
-    // ratio alternates 10 and 1000 each minute: geometric mean of a pair is 100.
+    // ratio alternates 10 and 1000 each minute; 504 points make 20-minute buckets, whose geometric mean is 100.
     await insertSeries(tank.probe.id, start, 7 * 24 * 60, 60, (i) => (i % 2 === 0 ? 10 : 1000));
     const to = new Date(start.getTime() + 7 * 86400_000);
-    const res = await get(`/api/tanks/${tank.id}/trend?from=${start.toISOString()}&to=${to.toISOString()}&maxPoints=500`);
+    const res = await get(`/api/tanks/${tank.id}/trend?from=${start.toISOString()}&to=${to.toISOString()}&maxPoints=504`);
     expect(res.status).toBe(200);
     expect(res.body.resolution).toBe('1m');
-    expect(res.body.t.length).toBeLessThanOrEqual(500);
+    expect(res.body.t.length).toBeLessThanOrEqual(504);
     expect(res.body.t.length).toBeGreaterThan(400);
     expect(res.body.ratio[10]).toBeCloseTo(100, 6);
     expect(res.body.ratioMin[10]).toBeCloseTo(10, 6);

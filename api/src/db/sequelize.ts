@@ -27,7 +27,15 @@ export function createSequelize(databaseUrl: string, poolMax = 10): Sequelize {
 
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug({
-    migrations: { glob: ['migrations/*.ts', { cwd: root }] },
+    migrations: {
+      glob: ['migrations/*.ts', { cwd: root }],
+      // Import from here rather than inside umzug so tsx and vitest both load the TypeScript files.
+      resolve: ({ name, path: file, context }) => ({
+        name,
+        up: async () => (await import(file!)).up({ context }),
+        down: async () => (await import(file!)).down({ context }),
+      }),
+    },
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
     logger: { info: (m) => logger.debug(m), warn: (m) => logger.warn(m), error: (m) => logger.error(m), debug: () => {} },
