@@ -1,0 +1,7 @@
+#!/usr/bin/env bash
+# npm start: installs what is missing, then runs the plant supervisor (scripts/run-plant.ts;
+# its settings are listed at the top of that file).
+set -euo pipefail
+cd "$(dirname "${BASH_SOURCE[0]}")/.."
+bash scripts/ensure-deps.sh
+exec node --import tsx scripts/run-plant.ts "$@"
