@@ -2,11 +2,13 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
 
 const apiPort = Number(process.env.PORT ?? 8470);
 
 export default defineConfig({
   plugins: [react(), tailwindcss()],
+  resolve: { alias: { '@shared': fileURLToPath(new URL('./shared', import.meta.url)) } },
   build: { outDir: 'dist/web', emptyOutDir: true, chunkSizeWarningLimit: 900 },
   server: {
     proxy: {

@@ -1,0 +1,5 @@
+import { FloorView } from '../../features/floor/components/floor-view';
+
+export function FloorRoute() {
+  return <FloorView />;
+}

@@ -1,0 +1,29 @@
+import { ROLES, type Role } from '@shared/schemas/auth';
+
+export type Screen = { path: string; name: string; roles: readonly Role[]; built: boolean };
+
+/** Every screen, who may open it, and whether it exists yet. The server enforces roles; this only hides. */
+export const SCREENS = {
+  floor: { path: '/', name: 'Floor', roles: ROLES, built: true },
+  alarms: { path: '/alarm-desk', name: 'Alarm desk', roles: ROLES, built: false },
+  bands: { path: '/bands', name: 'Bands', roles: ['metallurgist', 'admin'], built: false },
+  assays: { path: '/assays', name: 'Assays', roles: ['metallurgist', 'admin'], built: false },
+  calibration: { path: '/calibration', name: 'Calibration', roles: ['metallurgist', 'admin'], built: false },
+  dose: { path: '/dose-advisor', name: 'Dose advisor', roles: ['metallurgist', 'admin'], built: false },
+  roster: { path: '/call-roster', name: 'Call roster', roles: ['supervisor', 'admin'], built: false },
+  digest: { path: '/shift-digest', name: 'Shift digest', roles: ['supervisor', 'metallurgist', 'admin'], built: true },
+  shiftLog: { path: '/shift-log', name: 'Shift log', roles: ROLES, built: true },
+  readings: { path: '/readings', name: 'Readings', roles: ROLES, built: true },
+  setup: { path: '/plant-setup', name: 'Plant setup', roles: ['admin'], built: true },
+} as const satisfies Record<string, Screen>;
+
+export type ScreenId = keyof typeof SCREENS;
+
+export function canOpen(role: Role | undefined, screen: Screen): boolean {
+  return !!role && screen.roles.includes(role);
+}
+
+/** The nav shows built screens the role may open; later ones keep their routes but stay out of the way. */
+export function navFor(role: Role | undefined): Screen[] {
+  return Object.values(SCREENS).filter((s: Screen) => s.built && canOpen(role, s));
+}

@@ -1,0 +1,34 @@
+import { useEffect } from 'react';
+import { Navigate, Outlet, useLocation } from 'react-router-dom';
+import { useSessionUser } from '../../features/auth/hooks/use-session-user';
+import { usePlantLiveSync } from '../../features/floor/hooks/use-plant-live-sync';
+import { connectSocket, disconnectSocket, useSocketEvent } from '../../lib/socket';
+import { endSession } from '../session';
+import { Header } from './header';
+
+/** Signed-in frame: header, live connection, and the screen. */
+export function AppShell() {
+  const user = useSessionUser();
+  const location = useLocation();
+
+  useEffect(() => {
+    connectSocket();
+    return () => disconnectSocket();
+  }, []);
+  useSocketEvent('session:expired', () => void endSession('expired'));
+  usePlantLiveSync();
+
+  if (!user) return <Navigate to={`/sign-in?next=${encodeURIComponent(location.pathname + location.search)}`} replace />;
+
+  return (
+    <div className="flex h-full flex-col">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-panel focus:px-3 focus:py-2">
+        Skip to content
+      </a>
+      <Header user={user} />
+      <main id="main" className="min-h-0 flex-1 overflow-auto p-3">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,17 @@
+import { useNow } from '../../lib/clock';
+import { formatClock, formatUtcOffset } from '../../lib/format';
+
+/** The site's own time (alarms, shifts and logs are read in it), with its UTC offset. */
+export function SiteClock({ siteName, timeZone }: { siteName: string; timeZone: string }) {
+  const now = useNow();
+  return (
+    <div className="flex flex-col items-end leading-tight">
+      <span className="text-lg font-semibold tabular-nums" aria-label={`Site time ${formatClock(now, timeZone)}`}>
+        {formatClock(now, timeZone)}
+      </span>
+      <span className="text-xs text-ink-muted">
+        {siteName} · {formatUtcOffset(now, timeZone)}
+      </span>
+    </div>
+  );
+}

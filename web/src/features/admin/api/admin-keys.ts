@@ -1,0 +1,6 @@
+export const adminKeys = {
+  all: ['admin'] as const,
+  users: () => [...adminKeys.all, 'users'] as const,
+  simulator: () => [...adminKeys.all, 'simulator'] as const,
+  ingestHealth: () => [...adminKeys.all, 'ingest-health'] as const,
+};

@@ -1,0 +1,127 @@
+import type { ReactNode } from 'react';
+import { Link } from 'react-router-dom';
+import type { TankSummary } from '@shared/schemas/plant';
+import { BandBar } from '../../../components/ui/band-bar';
+import { BandState } from '../../../components/ui/band-state';
+import { FreshnessLabel } from '../../../components/ui/freshness-label';
+import { Quantity } from '../../../components/ui/quantity';
+import { formatAge, formatEhV, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
+import type { TankStatus } from './tank-status';
+
+// Type scales with the tile (container units), so one layout serves a 1920×1080 wall and a 1366×768 laptop.
+const TAG = 'text-[length:clamp(1.1rem,min(15cqw,11cqh),3.25rem)]';
+const RATIO = 'text-[length:clamp(1.6rem,min(28cqw,19cqh),5.5rem)]';
+const DETAIL = 'text-[length:clamp(0.8rem,min(7.6cqw,4.5cqh),1.5rem)]';
+
+function describe(tank: TankSummary, status: TankStatus): string {
+  const parts = [`Tank ${tank.tag}, ${tank.name}`];
+  if (status.kind === 'offline') parts.push('out of service');
+  else if (status.kind === 'no-probe') parts.push('no probe fitted');
+  else if (status.kind === 'no-reading') parts.push('no reading yet');
+  else if (tank.latest) {
+    parts.push(`ratio ${formatRatio(tank.latest.ratio)}`);
+    if (status.position) parts.push(status.position === 'in' ? 'in band' : `${status.position} band`);
+    if (status.kind === 'stale' && status.freshness.ageS != null) parts.push(`stale, last reading ${formatAge(status.freshness.ageS)}`);
+  }
+  return `${parts.join(', ')}. Open tank page.`;
+}
+
+function Row({ label, children }: { label: string; children: ReactNode }) {
+  return (
+    <div className="flex items-baseline justify-between gap-2">
+      <dt className="text-ink-muted">{label}</dt>
+      <dd className="text-right">{children}</dd>
+    </div>
+  );
+}
+
+export function TankTile({ tank, status }: { tank: TankSummary; status: TankStatus }) {
+  const latest = tank.latest;
+  const out = status.kind === 'live' && status.position !== 'in';
+  const stale = status.kind === 'stale';
+  const frame =
+    status.kind === 'offline'
+      ? 'hatch border border-dashed border-line-strong'
+      : out
+        ? 'border-[3px] border-attention-2'
+        : 'border border-line';
+
+  return (
+    <Link
+      to={`/tanks/${tank.id}`}
+      aria-label={describe(tank, status)}
+      data-testid="tank-tile"
+      data-tag={tank.tag}
+      data-ts={latest?.ts ?? ''}
+      className={`tile-box block h-full min-w-0 overflow-hidden rounded-lg bg-panel hover:bg-panel-2 ${frame}`}
+    >
+      <div className="flex h-full flex-col gap-[1.6cqh] p-[5cqw]">
+        <div className="flex min-w-0 items-baseline gap-2">
+          <span className={`font-bold leading-none tracking-tight ${TAG}`}>{tank.tag}</span>
+          <span className={`truncate text-ink-muted ${DETAIL}`}>{tank.name}</span>
+        </div>
+
+        {status.kind === 'offline' || status.kind === 'no-probe' || status.kind === 'no-reading' ? (
+          <div className={`mt-[4cqh] font-semibold text-offline-ink ${DETAIL}`}>
+            {status.kind === 'offline' ? 'Out of service' : status.kind === 'no-probe' ? 'No probe fitted' : 'No reading yet'}
+          </div>
+        ) : (
+          <>
+            <div className="flex items-baseline gap-2">
+              <span
+                data-testid="tile-ratio"
+                className={`font-bold leading-none tabular-nums ${RATIO} ${stale ? 'text-offline-ink line-through' : ''}`}
+              >
+                {formatRatio(latest?.ratio)}
+              </span>
+              <span className={`text-ink-muted ${DETAIL}`}>Fe³⁺/Fe²⁺</span>
+            </div>
+            <div className={DETAIL}>
+              {stale ? (
+                <span className="text-offline-ink">Not live</span>
+              ) : (
+                status.position && <BandState position={status.position} />
+              )}
+              {status.outsideRange && (
+                <span className="ml-2 font-semibold text-attention-3-ink">
+                  <span aria-hidden="true">◆ </span>Outside calibrated range
+                </span>
+              )}
+            </div>
+            <BandBar band={tank.band} ratio={latest?.ratio ?? null} factor={status.factor} attention={out} muted={stale} />
+          </>
+        )}
+
+        <div className={`mt-auto leading-tight ${DETAIL}`}>
+        <dl className="flex flex-col gap-[0.5cqh]">
+          {latest && status.kind !== 'offline' && (
+            <>
+              <Row label="ORP">
+                <Quantity value={formatMv(latest.orpMv)} unit="mV" struck={stale} />
+              </Row>
+              <Row label="Eh">
+                <Quantity value={formatEhV(latest.ehV)} unit="V" struck={stale} />
+              </Row>
+              <Row label="Temp">
+                <Quantity value={formatTempC(latest.tempC)} unit="°C" struck={stale} />
+              </Row>
+            </>
+          )}
+          <Row label="Band">
+            {status.bandMv && status.kind !== 'offline' ? (
+              <Quantity value={formatMvRange(status.bandMv.lowMv, status.bandMv.highMv)} unit="mV" />
+            ) : (
+              <Quantity value={`${formatRatio(tank.band.low)}–${formatRatio(tank.band.high)}`} />
+            )}
+          </Row>
+        </dl>
+        {status.kind !== 'offline' && status.kind !== 'no-probe' && (
+          <div className="pt-[0.8cqh]" data-testid="tile-freshness">
+            <FreshnessLabel freshness={status.freshness} />
+          </div>
+        )}
+        </div>
+      </div>
+    </Link>
+  );
+}

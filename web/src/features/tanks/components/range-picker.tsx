@@ -1,0 +1,71 @@
+import { useState, type FormEvent } from 'react';
+import { Button } from '../../../components/ui/button';
+import { TextField } from '../../../components/ui/field';
+import { serverNow } from '../../../lib/clock';
+import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { PRESETS, type Preset, type TrendRange } from '../api/get-trend';
+
+const LABELS: Record<Preset, string> = { '1h': '1 h', '8h': '8 h', '24h': '24 h', '7d': '7 d', '30d': '30 d' };
+
+function CustomRange({ range, timeZone, onApply }: { range: TrendRange; timeZone: string; onApply: (r: TrendRange) => void }) {
+  const initial = range.kind === 'custom' ? range : { from: new Date(serverNow() - 86_400_000).toISOString(), to: new Date(serverNow()).toISOString() };
+  const [from, setFrom] = useState(() => isoToSiteLocal(initial.from, timeZone));
+  const [to, setTo] = useState(() => isoToSiteLocal(initial.to, timeZone));
+  const [errors, setErrors] = useState<{ from?: string; to?: string }>({});
+
+  const apply = (e: FormEvent) => {
+    e.preventDefault();
+    const fromIso = siteLocalToIso(from, timeZone);
+    const toIso = siteLocalToIso(to, timeZone);
+    const next: typeof errors = {};
+    if (!fromIso) next.from = 'Enter a start date and time';
+    if (!toIso) next.to = 'Enter an end date and time';
+    if (fromIso && toIso && Date.parse(fromIso) >= Date.parse(toIso)) next.to = 'The end must be after the start';
+    setErrors(next);
+    if (fromIso && toIso && !next.from && !next.to) onApply({ kind: 'custom', from: fromIso, to: toIso });
+  };
+
+  return (
+    <form onSubmit={apply} noValidate className="flex flex-wrap items-start gap-3" aria-label="Custom range">
+      <TextField label="From (site time)" type="datetime-local" value={from} onChange={(e) => setFrom(e.target.value)} error={errors.from} />
+      <TextField label="To (site time)" type="datetime-local" value={to} onChange={(e) => setTo(e.target.value)} error={errors.to} />
+      <Button type="submit" variant="primary" className="mt-6">
+        Show
+      </Button>
+    </form>
+  );
+}
+
+/** 1 h … 30 d end "now" and follow live; a custom range is fixed. */
+export function RangePicker({ range, timeZone, onChange }: { range: TrendRange; timeZone: string; onChange: (r: TrendRange) => void }) {
+  const [customOpen, setCustomOpen] = useState(range.kind === 'custom');
+  const active = range.kind === 'preset' ? range.preset : 'custom';
+  const pill = (on: boolean) =>
+    `h-8 rounded-md px-3 text-sm font-semibold border ${on ? 'bg-ink text-canvas border-ink' : 'bg-panel text-ink border-line-strong hover:bg-panel-2'}`;
+
+  return (
+    <div className="flex flex-col gap-2">
+      <div role="group" aria-label="Trend range" className="flex flex-wrap items-center gap-1.5">
+        {(Object.keys(PRESETS) as Preset[]).map((p) => (
+          <button
+            key={p}
+            type="button"
+            aria-pressed={active === p}
+            className={pill(active === p)}
+            onClick={() => {
+              setCustomOpen(false);
+              onChange({ kind: 'preset', preset: p });
+            }}
+          >
+            {LABELS[p]}
+          </button>
+        ))}
+        <button type="button" aria-pressed={active === 'custom'} aria-expanded={customOpen} className={pill(active === 'custom' || customOpen)} onClick={() => setCustomOpen((o) => !o)}>
+          Custom…
+        </button>
+        <span className="ml-2 text-sm text-ink-muted">{range.kind === 'preset' ? 'Live: new readings are added as they arrive.' : 'Fixed range.'}</span>
+      </div>
+      {customOpen && <CustomRange range={range} timeZone={timeZone} onApply={onChange} />}
+    </div>
+  );
+}

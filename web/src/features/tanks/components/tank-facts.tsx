@@ -1,0 +1,168 @@
+import type { ReactNode } from 'react';
+import { referenceById } from '@shared/redox';
+import type { TankSummary } from '@shared/schemas/plant';
+import { BandBar } from '../../../components/ui/band-bar';
+import { BandState } from '../../../components/ui/band-state';
+import { FreshnessLabel } from '../../../components/ui/freshness-label';
+import { Quantity } from '../../../components/ui/quantity';
+import { formatDate, formatDateTime, formatEhV, formatFixed, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
+import type { Freshness } from '../../../lib/freshness';
+import { bandAsMv, bandPosition, uncertaintyFactor } from '../../../lib/redox-view';
+
+export const MIXED_POTENTIAL_CAVEAT =
+  'ORP in real slurries is a mixed potential; the ratio is an estimate validated by lab assays.';
+
+function Section({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <section className="border-t border-line pt-3">
+      <h2 className="mb-2 text-sm font-bold uppercase tracking-wide text-ink-muted">{title}</h2>
+      <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1.5 text-sm">{children}</dl>
+    </section>
+  );
+}
+
+function Fact({ label, children }: { label: string; children: ReactNode }) {
+  return (
+    <>
+      <dt className="text-ink-muted">{label}</dt>
+      <dd className="text-right">{children}</dd>
+    </>
+  );
+}
+
+function publishedReference(id: string) {
+  try {
+    return referenceById(id);
+  } catch {
+    return null;
+  }
+}
+
+export function TankFacts({ tank, timeZone, freshness }: { tank: TankSummary; timeZone: string; freshness: Freshness }) {
+  const { probe, calibration, latest, band } = tank;
+  const tempC = latest?.tempC;
+  const bandMv = bandAsMv(band, probe, calibration, tempC);
+  const factor = uncertaintyFactor(probe, tempC);
+  const stale = freshness.stale;
+  const position = latest ? bandPosition(latest.ratio, band) : null;
+  const published = probe ? publishedReference(probe.referenceId) : null;
+
+  return (
+    <div className="flex flex-col gap-4">
+      <section aria-label="Latest values" className="flex flex-col gap-2" data-testid="tank-latest">
+        <div className="flex items-baseline gap-2">
+          <span className={`text-5xl font-bold tabular-nums ${stale ? 'text-offline-ink line-through' : ''}`}>{formatRatio(latest?.ratio)}</span>
+          <span className="text-ink-muted">Fe³⁺/Fe²⁺</span>
+          <span className="ml-auto">{tank.offline ? <span className="text-offline-ink">Out of service</span> : position && !stale && <BandState position={position} />}</span>
+        </div>
+        <BandBar band={band} ratio={latest?.ratio ?? null} factor={factor} attention={!stale && position != null && position !== 'in'} muted={stale} aspect={18} />
+        {latest && (
+          <dl className="grid grid-cols-4 gap-2 text-sm">
+            {[
+              ['ORP', formatMv(latest.orpMv), 'mV'],
+              ['Eh', formatEhV(latest.ehV), 'V'],
+              ['Temp', formatTempC(latest.tempC), '°C'],
+              ['Fe³⁺ share', formatFixed(latest.ferricFraction * 100, 0), '%'],
+            ].map(([label, value, unit]) => (
+              <div key={label}>
+                <dt className="text-ink-muted">{label}</dt>
+                <dd>
+                  <Quantity value={value} unit={unit} struck={stale} className="text-lg" />
+                </dd>
+              </div>
+            ))}
+          </dl>
+        )}
+        <FreshnessLabel freshness={freshness} className="text-sm" />
+        {latest?.flag === 'outside-range' && (
+          <p className="text-sm font-semibold text-attention-3-ink">
+            <span aria-hidden="true">◆ </span>Outside calibrated range: the ratio is clamped; check the probe.
+          </p>
+        )}
+      </section>
+
+      <Section title="Band">
+        <Fact label="Ratio">
+          <Quantity value={`${formatRatio(band.low)} to ${formatRatio(band.high)}`} />
+          {band.target != null && <span className="text-ink-muted"> · target {formatRatio(band.target)}</span>}
+        </Fact>
+        <Fact label={tempC != null ? `mV at ${formatTempC(tempC)} °C` : 'mV'}>
+          {bandMv ? <Quantity value={formatMvRange(bandMv.lowMv, bandMv.highMv)} unit="mV" /> : '—'}
+        </Fact>
+        <Fact label="Uncertainty">
+          {probe && factor ? (
+            <span>
+              ±{formatFixed(probe.toleranceMv, 0)} mV → ratio ×/÷ {factor.toFixed(2)}
+            </span>
+          ) : (
+            '—'
+          )}
+        </Fact>
+      </Section>
+
+      <Section title="Probe">
+        {probe ? (
+          <>
+            <Fact label="Tag">{probe.tag}</Fact>
+            <Fact label="Reference">{probe.referenceLabel}</Fact>
+            <Fact label="Value used">
+              <Quantity value={formatFixed(probe.referenceE25V, 4)} unit="V vs SHE at 25 °C" />
+            </Fact>
+            <Fact label="Coefficient">
+              <Quantity value={formatFixed(probe.referenceCoeffVPerK * 1000, 2)} unit="mV/K" />
+            </Fact>
+            {published && (published.e25V !== probe.referenceE25V || published.coeffVPerK !== probe.referenceCoeffVPerK) && (
+              <Fact label="Table value">
+                <span className="text-ink-muted">
+                  {formatFixed(published.e25V, 4)} V, {formatFixed(published.coeffVPerK * 1000, 2)} mV/K
+                </span>
+              </Fact>
+            )}
+            <Fact label="Tolerance">
+              <Quantity value={`±${formatFixed(probe.toleranceMv, 0)}`} unit="mV" />
+            </Fact>
+            <Fact label="Reports every">
+              <Quantity value={String(probe.intervalS)} unit="s" />
+            </Fact>
+            <Fact label="Installed">{formatDate(probe.installedAt, timeZone)}</Fact>
+          </>
+        ) : (
+          <Fact label="Probe">None fitted</Fact>
+        )}
+      </Section>
+
+      <Section title="Calibration">
+        {calibration ? (
+          <>
+            <Fact label="Version">
+              {calibration.version}
+              {latest && latest.calibrationVersion !== calibration.version && (
+                <span className="text-ink-muted"> (newest reading used v{latest.calibrationVersion})</span>
+              )}
+            </Fact>
+            <Fact label="E°′ at 25 °C">
+              <Quantity value={formatFixed(calibration.formalPotentialV, 4)} unit="V vs SHE" />
+            </Fact>
+            <Fact label="Coefficient">
+              <Quantity value={formatFixed(calibration.formalCoeffVPerK * 1000, 3)} unit="mV/K" />
+            </Fact>
+            <Fact label="Valid from">{formatDateTime(calibration.validFrom, timeZone)}</Fact>
+            <Fact label="Reason">
+              <span className="text-left">{calibration.reason}</span>
+            </Fact>
+          </>
+        ) : (
+          <Fact label="Calibration">None yet</Fact>
+        )}
+      </Section>
+
+      <Section title="Active alarms">
+        <Fact label="Alarms">
+          <span className="text-ink-muted">Listed here once the Alarm desk arrives.</span>
+        </Fact>
+      </Section>
+
+      <p className="border-t border-line pt-3 text-sm text-ink-muted">{MIXED_POTENTIAL_CAVEAT}</p>
+    </div>
+  );
+}

@@ -1,0 +1,145 @@
+import { useEffect, useRef, useSyncExternalStore } from 'react';
+import { io, type Socket } from 'socket.io-client';
+import type { TankLive } from '@shared/schemas/readings';
+import type { AlarmEventView } from '@shared/schemas/alarms';
+
+/** Payload of probe:freshness: stale after three expected intervals without a reading. */
+export type ProbeFreshness = { probeId: number; tankId: number; stale: boolean; lastTs: string | null };
+
+type ServerEvents = {
+  'tank:latest': (readings: TankLive[]) => void;
+  'probe:freshness': (f: ProbeFreshness) => void;
+  'session:expired': () => void;
+  /** One alarm lifecycle event; ids are monotonic, replayed after a reconnect (may arrive twice or out of order). */
+  'alarm:event': (e: AlarmEventView) => void;
+  /** Too much was missed to replay: reload the alarm lists. */
+  'alarm:resync': (p: { lastEventId: number }) => void;
+};
+type ClientEvents = { 'alarm:since': (afterId: number) => void };
+type EventName = keyof ServerEvents;
+type Payload<E extends EventName> = Parameters<ServerEvents[E]>;
+
+/** connecting: first attempt; reconnecting: lost and retrying; offline: given up for now (still retrying in the background). */
+export type ConnectionState = 'connecting' | 'connected' | 'reconnecting' | 'offline';
+
+const FAILURES_BEFORE_OFFLINE = 3;
+const EVENTS: EventName[] = ['tank:latest', 'probe:freshness', 'session:expired', 'alarm:event', 'alarm:resync'];
+
+/** Newest alarm event id this page has; sent on every (re)connect so the server replays what was missed. */
+let alarmResumeId: number | null = null;
+export function noteAlarmEventId(id: number): void {
+  if (alarmResumeId === null || id > alarmResumeId) alarmResumeId = id;
+}
+/** Asks for every alarm event after an id (used once the alarm list has loaded). */
+export function requestAlarmsSince(id: number): void {
+  noteAlarmEventId(id);
+  socket?.emit('alarm:since', id);
+}
+
+let socket: Socket<ServerEvents, ClientEvents> | null = null;
+let state: ConnectionState = 'offline';
+let failures = 0;
+const stateListeners = new Set<() => void>();
+const eventListeners = new Map<EventName, Set<(...args: never[]) => void>>();
+
+function setState(next: ConnectionState) {
+  if (next === state) return;
+  state = next;
+  for (const l of stateListeners) l();
+}
+
+function emitLocal<E extends EventName>(event: E, ...args: Payload<E>) {
+  for (const l of eventListeners.get(event) ?? []) (l as (...a: Payload<E>) => void)(...args);
+}
+
+function onBrowserOnline() {
+  if (socket && !socket.connected) socket.connect();
+}
+function onBrowserOffline() {
+  setState('offline');
+}
+
+/** Opens the live connection (idempotent). Called once the user is signed in. */
+export function connectSocket(): void {
+  if (socket) return;
+  failures = 0;
+  setState('connecting');
+  const s: Socket<ServerEvents, ClientEvents> = io({
+    path: '/socket.io', withCredentials: true, transports: ['websocket', 'polling'],
+    // Called on every attempt, so a reconnect carries the newest id seen.
+    auth: (cb) => cb(alarmResumeId === null ? {} : { lastAlarmEventId: alarmResumeId }),
+  });
+  socket = s;
+  s.on('connect', () => {
+    failures = 0;
+    setState('connected');
+  });
+  s.on('disconnect', (reason) => {
+    if (reason === 'io client disconnect') return setState('offline');
+    // The server only drops us on purpose when the session ended.
+    if (reason === 'io server disconnect') {
+      setState('offline');
+      return emitLocal('session:expired');
+    }
+    setState('reconnecting');
+  });
+  s.on('connect_error', (err) => {
+    // A refusal by the server's auth middleware is final: socket.io does not retry it.
+    if (err.message === 'unauthorized') {
+      setState('offline');
+      return emitLocal('session:expired');
+    }
+    failures += 1;
+    setState(failures >= FAILURES_BEFORE_OFFLINE ? 'offline' : state === 'connecting' ? 'connecting' : 'reconnecting');
+  });
+  for (const event of EVENTS) {
+    s.on(event, ((...args: Payload<typeof event>) => emitLocal(event, ...args)) as never);
+  }
+  window.addEventListener('online', onBrowserOnline);
+  window.addEventListener('offline', onBrowserOffline);
+}
+
+/** Closes the live connection (sign-out, expired session). */
+export function disconnectSocket(): void {
+  window.removeEventListener('online', onBrowserOnline);
+  window.removeEventListener('offline', onBrowserOffline);
+  socket?.removeAllListeners();
+  socket?.disconnect();
+  socket = null;
+  alarmResumeId = null;
+  setState('offline');
+}
+
+function subscribeState(listener: () => void) {
+  stateListeners.add(listener);
+  return () => stateListeners.delete(listener);
+}
+
+export function useConnectionState(): ConnectionState {
+  return useSyncExternalStore(subscribeState, () => state);
+}
+
+/** Live updates are pushed; polling is only the fallback while the socket is down. */
+export function useIsLive(): boolean {
+  return useConnectionState() === 'connected';
+}
+
+/** Subscribes to a server event for the lifetime of the component; the handler may change between renders. */
+export function useSocketEvent<E extends EventName>(event: E, handler: ServerEvents[E]): void {
+  const ref = useRef(handler);
+  useEffect(() => {
+    ref.current = handler;
+  });
+  useEffect(() => {
+    const fn = (...args: Payload<E>) => (ref.current as (...a: Payload<E>) => void)(...args);
+    const set = eventListeners.get(event) ?? new Set();
+    set.add(fn as (...args: never[]) => void);
+    eventListeners.set(event, set);
+    return () => {
+      set.delete(fn as (...args: never[]) => void);
+    };
+  }, [event]);
+}
+
+/** How often to poll while the socket is down. */
+export const FALLBACK_POLL_MS = 10_000;

@@ -1,0 +1,17 @@
+import { StrictMode } from 'react';
+import { createRoot } from 'react-dom/client';
+import { RouterProvider } from 'react-router-dom';
+import { AppProvider } from './app/provider';
+import { router } from './app/router';
+import { applyStoredTheme } from './lib/theme';
+import './index.css';
+
+applyStoredTheme();
+
+createRoot(document.getElementById('root')!).render(
+  <StrictMode>
+    <AppProvider>
+      <RouterProvider router={router} />
+    </AppProvider>
+  </StrictMode>,
+);
