@@ -2,7 +2,9 @@
 # Makes sure everything `npm start` / `npm test` need is on this machine (Debian 12, Node 20).
 #   scripts/ensure-deps.sh          MariaDB server + client (Debian packages), npm packages
 #   scripts/ensure-deps.sh test     the same, plus Debian's chromium for the browser tests
-#                                   (skipped when FERRISIGHT_BROWSER_TESTS=0)
+#                                   (skipped when FERRISIGHT_BROWSER_TESTS=0); plus redis-server
+#                                   when the scale tests run (CI=true or FERRISIGHT_SCALE=1)
+#   scripts/ensure-deps.sh cluster  the same as start, plus Debian's redis-server (npm run start:cluster)
 # Installs only what is missing; prints one line per step it takes.
 set -euo pipefail
 
@@ -21,6 +23,10 @@ if ! have mariadbd || ! have mariadb-install-db || ! have mariadb; then
 fi
 if [ "$MODE" = "test" ] && [ "${FERRISIGHT_BROWSER_TESTS:-1}" != "0" ] && [ ! -x /usr/bin/chromium ]; then
   pkgs+=(chromium)
+fi
+# Redis carries socket.io between API nodes (README "Scaling out"): only the cluster paths need it.
+if { [ "$MODE" = "cluster" ] || { [ "$MODE" = "test" ] && { [ "${CI:-}" = "true" ] || [ "${FERRISIGHT_SCALE:-0}" = "1" ]; }; }; } && ! have redis-server; then
+  pkgs+=(redis-server)
 fi
 if [ "${#pkgs[@]}" -gt 0 ]; then
   if [ "$(id -u)" != "0" ]; then
@@ -63,7 +69,10 @@ if [ "$want" != "$have_hash" ]; then
   else
     echo "Installing npm packages (npm ci)…"
     log="$(mktemp)"
-    if ! npm ci --no-audit --no-fund --loglevel=error >"$log" 2>&1; then
+    # --ignore-scripts: every dependency ships what it needs prebuilt (esbuild's platform
+    # package, classic-level's prebuilds); their install scripts only re-check that and can
+    # fail half-way through npm ci, after node_modules has been removed.
+    if ! npm ci --ignore-scripts --no-audit --no-fund --loglevel=error >"$log" 2>&1; then
       tail -n 30 "$log" >&2
       rm -f "$log"
       echo "npm ci failed" >&2

@@ -8,6 +8,7 @@ import type { Role } from '../shared/schemas/auth.ts';
 import { Calibration, Circuit, Device, Probe, Site, Tank, User, initModels } from '../api/src/db/models.ts';
 import { createSequelize } from '../api/src/db/sequelize.ts';
 import { BCRYPT_COST } from '../api/src/modules/auth/auth.service.ts';
+import { seedDemoAlarms } from './seed/demo-alarms.ts';
 import { DEMO_CIRCUITS, DEMO_DEVICE, DEMO_SITE } from './seed/demo-plant.ts';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -44,6 +45,7 @@ export async function seedDemo(databaseUrl: string, simDevicePassword: string): 
           }, { transaction });
         }
       }
+      await seedDemoAlarms(sequelize, transaction);
     });
     return true;
   } finally {

@@ -7,10 +7,24 @@ import { csrfGuard, sessionMiddleware } from './middleware/auth.ts';
 import { listRoutes } from './lib/route-list.ts';
 import { errorHandler, notFoundHandler } from './middleware/errors.ts';
 import { adminRouter } from './modules/admin/admin.router.ts';
+import { alarmsRouter } from './modules/alarms/alarms.router.ts';
+import { assaysRouter } from './modules/assays/assays.router.ts';
+import { bandsRouter } from './modules/bands/bands.router.ts';
+import { calibrationRouter } from './modules/calibration/calibration.router.ts';
+import { doseRouter } from './modules/dose/dose.router.ts';
+import { probeChecksRouter } from './modules/probe-checks/probe-checks.router.ts';
+import { settingsRouter } from './modules/workbench/settings.router.ts';
 import type { AuthService } from './modules/auth/auth.service.ts';
 import { authRouter } from './modules/auth/auth.router.ts';
+import { ackRouter } from './modules/notify/ack.router.ts';
+import { mailRouter } from './modules/notify/mail.router.ts';
 import { plantRouter } from './modules/plant/plant.router.ts';
+import { rosterRouter } from './modules/roster/roster.router.ts';
 import { usersRouter } from './modules/users/users.router.ts';
+import { digestRouter } from './modules/digest/digest.router.ts';
+import { exportRouter } from './modules/readings-io/export.router.ts';
+import { importRouter } from './modules/readings-io/import.router.ts';
+import { shiftLogRouter, shiftsRouter } from './modules/shifts/shifts.router.ts';
 import type { Bus } from './realtime/bus.ts';
 
 export type AppDeps = {
@@ -20,6 +34,14 @@ export type AppDeps = {
   /** Built web app to serve; omitted in API tests. */
   webDist?: string;
   bus?: Bus;
+  /** Uploads go to `${dataDir}/uploads` (historical import); default '.data'. */
+  dataDir?: string;
+  /** Imported readings older than this are refused, as live ones are; default 90. */
+  rawRetentionDays?: number;
+  /** JWT_SECRET: signs the acknowledge links in escalation mail (omitted: links show "not set up"). */
+  ackSecret?: string;
+  /** Where the local mail catcher stores what it receives (DATA_DIR/mail). */
+  mailDir?: string;
 };
 
 /** Builds the Express app without listening, so tests drive it with supertest. */
@@ -41,6 +63,21 @@ export function createApp(deps: AppDeps): Express {
     ['/api/users', usersRouter()],
     ['/api', plantRouter()],
     ['/api/admin', adminRouter(deps.bus)],
+    ['/api/admin/mail', mailRouter(deps.mailDir)],
+    ['/api/alarms', alarmsRouter()],
+    ['/api/roster', rosterRouter()],
+    ['/ack', ackRouter(deps.ackSecret)],
+    ['/api/bands', bandsRouter(deps.bus)],
+    ['/api/assays', assaysRouter()],
+    ['/api/calibration', calibrationRouter(deps.bus)],
+    ['/api/probe-checks', probeChecksRouter()],
+    ['/api/dose', doseRouter()],
+    ['/api/workbench', settingsRouter()],
+    ['/api/shifts', shiftsRouter()],
+    ['/api/shift-log', shiftLogRouter()],
+    ['/api/digest', digestRouter()],
+    ['/api/readings', exportRouter()],
+    ['/api/readings', importRouter({ dataDir: deps.dataDir ?? '.data', retentionDays: deps.rawRetentionDays ?? 90 })],
   ];
   for (const [prefix, router] of mounts) app.use(prefix, router);
   app.locals.routes = listRoutes(mounts);

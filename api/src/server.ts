@@ -1,4 +1,5 @@
 import http from 'node:http';
+import path from 'node:path';
 import { createApp } from './app.ts';
 import { config } from './config.ts';
 import { initModels } from './db/models.ts';
@@ -18,7 +19,7 @@ async function main(): Promise<void> {
   const auth = createAuthService({ jwtSecret: cfg.JWT_SECRET, ttlS: cfg.JWT_TTL_S });
   const bus = cfg.SERVICE_MQTT_PASSWORD ? new Bus(cfg.MQTT_URL, cfg.SERVICE_MQTT_USER, cfg.SERVICE_MQTT_PASSWORD) : undefined;
   if (!bus) logger.warn('SERVICE_MQTT_PASSWORD unset: no live values from the broker');
-  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, secureCookie: cfg.PUBLIC_URL?.startsWith('https://') ?? false });
+  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, dataDir: cfg.DATA_DIR, rawRetentionDays: cfg.RAW_RETENTION_DAYS, ackSecret: cfg.JWT_SECRET, mailDir: path.resolve(cfg.DATA_DIR, 'mail'), secureCookie: cfg.PUBLIC_URL?.startsWith('https://') ?? false });
   const server = http.createServer(app);
   const realtime = attachRealtime(server, auth, bus);
 

@@ -3,6 +3,7 @@ import {
   type InferCreationAttributes, type Sequelize,
 } from 'sequelize';
 import type { Role } from '../../../shared/schemas/auth.ts';
+import { initWorkbenchModels } from './workbench-models.ts';
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>;
@@ -190,4 +191,5 @@ export function initModels(sequelize: Sequelize): void {
   Calibration.belongsTo(Tank, { foreignKey: 'tankId' });
   Site.hasMany(Device, { foreignKey: 'siteId' });
   Device.belongsTo(Site, { foreignKey: 'siteId' });
+  initWorkbenchModels(sequelize);
 }

@@ -1,5 +1,6 @@
 import { EventEmitter } from 'node:events';
 import mqtt, { type MqttClient } from 'mqtt';
+import type { IngestHealth } from '../../../shared/schemas/ingest-health.ts';
 import { INTERNAL_PREFIX, type TankLive } from '../../../shared/schemas/readings.ts';
 import { logger } from '../lib/logger.ts';
 
@@ -12,7 +13,7 @@ export type SimCommand = SimFault & { action: 'start' | 'clear' };
  */
 export class Bus extends EventEmitter {
   simState: SimFault[] = [];
-  ingestHealth: Record<string, unknown> | null = null;
+  ingestHealth: IngestHealth | null = null;
   private client: MqttClient;
 
   constructor(url: string, username: string, password: string, clientId = `ferrisight-api-${process.pid}`) {

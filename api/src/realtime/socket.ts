@@ -6,6 +6,7 @@ import type { AuthService } from '../modules/auth/auth.service.ts';
 import { SESSION_COOKIE } from '../modules/auth/tokens.ts';
 import { plantRepository } from '../modules/plant/plant.repository.ts';
 import type { Bus } from './bus.ts';
+import { attachAlarmFeed } from './alarm-feed.ts';
 import { LiveFeed } from './live-feed.ts';
 
 function cookieValue(header: string | undefined, name: string): string | undefined {
@@ -27,7 +28,11 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
   io.use(async (socket, next) => {
     const token = (socket.handshake.auth?.token as string | undefined) ?? cookieValue(socket.handshake.headers.cookie, SESSION_COOKIE);
     const user = await auth.authenticate(token).catch(() => null);
-    if (!user) return next(new Error('unauthorized'));
+    if (!user) {
+      // ASVS 16.3.1: a presented but refused credential is an authentication failure worth a log line.
+      if (token) logger.warn({ ip: socket.handshake.address, origin: socket.handshake.headers.origin }, 'socket handshake refused: invalid or revoked session');
+      return next(new Error('unauthorized'));
+    }
     socket.data.user = user;
     next();
   });
@@ -67,12 +72,14 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
     io.in(`user:${userId}`).disconnectSockets(true);
   };
   sessionEvents.on('revoked', onRevoked);
+  const alarmFeed = attachAlarmFeed(io);
 
   return {
     io,
     feed,
     async close() {
       sessionEvents.off('revoked', onRevoked);
+      alarmFeed.close();
       clearInterval(probeTimer);
       clearInterval(flushTimer);
       await io.close();

@@ -6,7 +6,6 @@ import { Loading } from '../components/ui/page-state';
 import { queryClient } from '../lib/query-client';
 import { ChangePasswordRoute } from './routes/change-password';
 import { FloorRoute } from './routes/floor';
-import { LaterRoute } from './routes/later';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteError } from './routes/route-error';
 import { SignInRoute } from './routes/sign-in';
@@ -40,11 +39,6 @@ async function skipSignInWhenSignedIn() {
   return null;
 }
 
-const later = (screen: (typeof SCREENS)[keyof typeof SCREENS]) => ({
-  path: screen.path.slice(1),
-  element: <LaterRoute screen={screen} />,
-});
-
 export const router = createBrowserRouter([
   {
     path: '/sign-in',
@@ -76,15 +70,16 @@ export const router = createBrowserRouter([
           },
           { path: SCREENS.setup.path.slice(1), lazy: async () => ({ Component: (await import('./routes/plant-setup')).PlantSetupRoute }) },
           { path: 'account/password', element: <ChangePasswordRoute /> },
-          later(SCREENS.alarms),
-          later(SCREENS.bands),
-          later(SCREENS.assays),
-          later(SCREENS.calibration),
-          later(SCREENS.dose),
-          later(SCREENS.roster),
+          { path: SCREENS.alarms.path.slice(1), lazy: async () => ({ Component: (await import('./routes/alarm-desk')).AlarmDeskRoute }) },
+          { path: SCREENS.bands.path.slice(1), lazy: async () => ({ Component: (await import('./routes/bands')).BandsRoute }) },
+          { path: SCREENS.assays.path.slice(1), lazy: async () => ({ Component: (await import('./routes/assays')).AssaysRoute }) },
+          { path: SCREENS.calibration.path.slice(1), lazy: async () => ({ Component: (await import('./routes/calibration')).CalibrationRoute }) },
+          { path: SCREENS.dose.path.slice(1), lazy: async () => ({ Component: (await import('./routes/dose-advisor')).DoseAdvisorRoute }) },
+          { path: SCREENS.roster.path.slice(1), lazy: async () => ({ Component: (await import('./routes/call-roster')).CallRosterRoute }) },
           { path: SCREENS.digest.path.slice(1), lazy: async () => ({ Component: (await import('./routes/shift-digest')).ShiftDigestRoute }) },
           { path: SCREENS.shiftLog.path.slice(1), lazy: async () => ({ Component: (await import('./routes/shift-log')).ShiftLogRoute }) },
-          { path: SCREENS.readings.path.slice(1), lazy: async () => ({ Component: (await import('./routes/readings')).ReadingsRoute }) },
+          // Readings in and out: linked from the Shift log and the Shift digest rather than the crowded nav.
+          { path: 'readings', lazy: async () => ({ Component: (await import('./routes/readings')).ReadingsRoute }) },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

@@ -5,15 +5,16 @@ export type Screen = { path: string; name: string; roles: readonly Role[]; built
 /** Every screen, who may open it, and whether it exists yet. The server enforces roles; this only hides. */
 export const SCREENS = {
   floor: { path: '/', name: 'Floor', roles: ROLES, built: true },
-  alarms: { path: '/alarm-desk', name: 'Alarm desk', roles: ROLES, built: false },
-  bands: { path: '/bands', name: 'Bands', roles: ['metallurgist', 'admin'], built: false },
-  assays: { path: '/assays', name: 'Assays', roles: ['metallurgist', 'admin'], built: false },
-  calibration: { path: '/calibration', name: 'Calibration', roles: ['metallurgist', 'admin'], built: false },
-  dose: { path: '/dose-advisor', name: 'Dose advisor', roles: ['metallurgist', 'admin'], built: false },
-  roster: { path: '/call-roster', name: 'Call roster', roles: ['supervisor', 'admin'], built: false },
+  alarms: { path: '/alarm-desk', name: 'Alarm desk', roles: ROLES, built: true },
+  // Supervisors open Bands to approve large changes (a second person); only metallurgists and admins change.
+  bands: { path: '/bands', name: 'Bands', roles: ['supervisor', 'metallurgist', 'admin'], built: true },
+  assays: { path: '/assays', name: 'Assays', roles: ['metallurgist', 'admin'], built: true },
+  calibration: { path: '/calibration', name: 'Calibration', roles: ['metallurgist', 'admin'], built: true },
+  dose: { path: '/dose-advisor', name: 'Dose advisor', roles: ['metallurgist', 'admin'], built: true },
+  // Everyone may see who is on call; supervisors and admins change it (the server enforces).
+  roster: { path: '/call-roster', name: 'Call roster', roles: ROLES, built: true },
   digest: { path: '/shift-digest', name: 'Shift digest', roles: ['supervisor', 'metallurgist', 'admin'], built: true },
   shiftLog: { path: '/shift-log', name: 'Shift log', roles: ROLES, built: true },
-  readings: { path: '/readings', name: 'Readings', roles: ROLES, built: true },
   setup: { path: '/plant-setup', name: 'Plant setup', roles: ['admin'], built: true },
 } as const satisfies Record<string, Screen>;
 

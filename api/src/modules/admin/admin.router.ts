@@ -29,7 +29,8 @@ export function adminRouter(bus?: Bus): Router {
     res.status(202).json({ accepted: cmd });
   });
   r.get('/ingest-health', (_req, res) => {
-    res.json(bus?.ingestHealth ?? { messages: 0, readings: 0, deadLetters: 0, conflicts: 0, duplicates: 0, lagMs: null, batchP50Ms: null, batchP99Ms: null, updatedAt: null });
+    // null until the worker has published its first snapshot.
+    res.json({ health: bus?.ingestHealth ?? null });
   });
   return r;
 }

@@ -3,6 +3,7 @@ import { SimulatorPanel } from '../../features/admin/components/simulator-panel'
 import { UsersPanel } from '../../features/admin/components/users-panel';
 import { useSessionUser } from '../../features/auth/hooks/use-session-user';
 import { usePlant } from '../../features/floor/api/get-plant';
+import { CaughtMailPanel } from '../../features/roster/components/caught-mail-panel';
 import { SCREENS } from '../screens';
 import { RoleGate } from './role-gate';
 
@@ -22,6 +23,7 @@ function PlantSetup() {
         <SimulatorPanel probes={probes} />
         <IngestHealthPanel />
       </div>
+      <CaughtMailPanel timeZone={plant.data?.sites[0]?.timeZone ?? 'UTC'} />
     </div>
   );
 }

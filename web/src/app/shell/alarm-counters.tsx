@@ -1,13 +1,13 @@
-import { PriorityCount } from '../../components/ui/priority-pill';
+import { AlarmHeaderCounters } from '../../features/alarms/components/alarm-header-counters';
+import { OnCallNow } from '../../features/roster/components/on-call-now';
 import { SCREENS } from '../screens';
 
-/** Counts by priority. Zeros until the Alarm desk lands; the place and shapes are final. */
+/** Live counts by priority (click → Alarm desk), the alarm sound switch, and who is on call now. */
 export function AlarmCounters() {
   return (
-    <nav aria-label="Alarms by priority" className="flex items-center gap-1.5">
-      <PriorityCount priority={1} count={0} to={SCREENS.alarms.path} />
-      <PriorityCount priority={2} count={0} to={SCREENS.alarms.path} />
-      <PriorityCount priority={3} count={0} to={SCREENS.alarms.path} />
-    </nav>
+    <div className="flex items-center gap-3">
+      <AlarmHeaderCounters deskPath={SCREENS.alarms.path} />
+      <OnCallNow compact rosterPath={SCREENS.roster.path} />
+    </div>
   );
 }

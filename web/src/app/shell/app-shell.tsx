@@ -1,9 +1,14 @@
 import { useEffect } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
+import { NewAlarmBanner } from '../../features/alarms/components/new-alarm-banner';
+import { useAlarmLiveSync } from '../../features/alarms/hooks/use-alarm-live-sync';
+import { useTankAlarmBadges } from '../../features/alarms/hooks/use-tank-alarm-badges';
 import { useSessionUser } from '../../features/auth/hooks/use-session-user';
 import { usePlantLiveSync } from '../../features/floor/hooks/use-plant-live-sync';
 import { connectSocket, disconnectSocket, useSocketEvent } from '../../lib/socket';
+import { TankAlarmsProvider } from '../../lib/tank-alarms';
 import { endSession } from '../session';
+import { SCREENS } from '../screens';
 import { Header } from './header';
 
 /** Signed-in frame: header, live connection, and the screen. */
@@ -17,6 +22,8 @@ export function AppShell() {
   }, []);
   useSocketEvent('session:expired', () => void endSession('expired'));
   usePlantLiveSync();
+  useAlarmLiveSync();
+  const tankAlarms = useTankAlarmBadges();
 
   if (!user) return <Navigate to={`/sign-in?next=${encodeURIComponent(location.pathname + location.search)}`} replace />;
 
@@ -26,8 +33,11 @@ export function AppShell() {
         Skip to content
       </a>
       <Header user={user} />
+      <NewAlarmBanner deskPath={SCREENS.alarms.path} />
       <main id="main" className="min-h-0 flex-1 overflow-auto p-3">
-        <Outlet />
+        <TankAlarmsProvider value={tankAlarms}>
+          <Outlet />
+        </TankAlarmsProvider>
       </main>
     </div>
   );

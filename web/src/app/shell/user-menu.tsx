@@ -24,7 +24,7 @@ export function UserMenu({ user }: { user: SessionUser }) {
         data-testid="user-menu-button"
       >
         <span className="flex flex-col leading-tight">
-          <span className="text-sm font-semibold">{user.name}</span>
+          <span className="max-w-[11rem] truncate text-sm font-semibold">{user.name}</span>
           <span className="text-xs capitalize text-ink-muted">{user.role}</span>
         </span>
         <span aria-hidden="true" className="text-ink-muted">

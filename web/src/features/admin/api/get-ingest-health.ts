@@ -1,21 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import type { IngestHealth } from '@shared/schemas/ingest-health';
 import { adminKeys } from './admin-keys';
 
-export type IngestHealth = {
-  messages: number;
-  readings: number;
-  deadLetters: number;
-  conflicts: number;
-  duplicates: number;
-  lagMs: number | null;
-  batchP50Ms: number | null;
-  batchP99Ms: number | null;
-  updatedAt: string | null;
-};
+export type { IngestHealth };
 
-export function getIngestHealth(signal?: AbortSignal): Promise<IngestHealth> {
-  return api.get<IngestHealth>('/api/admin/ingest-health', { signal });
+export function getIngestHealth(signal?: AbortSignal): Promise<{ health: IngestHealth | null }> {
+  return api.get<{ health: IngestHealth | null }>('/api/admin/ingest-health', { signal });
 }
 
 export const ingestHealthQueryOptions = () =>

@@ -9,26 +9,32 @@ const ms = (v: number | null) => (v == null ? '—' : v < 10 ? v.toFixed(1) : St
 
 const FIGURES: Array<{ key: keyof IngestHealth; label: string; render: (h: IngestHealth) => [string, string?]; warn?: (h: IngestHealth) => boolean }> = [
   { key: 'messages', label: 'Messages', render: (h) => [count(h.messages)] },
-  { key: 'readings', label: 'Readings stored', render: (h) => [count(h.readings)] },
+  { key: 'readingsStored', label: 'Readings stored', render: (h) => [count(h.readingsStored)] },
   { key: 'deadLetters', label: 'Dead letters', render: (h) => [count(h.deadLetters)], warn: (h) => h.deadLetters > 0 },
   { key: 'conflicts', label: 'Conflicts', render: (h) => [count(h.conflicts)], warn: (h) => h.conflicts > 0 },
   { key: 'duplicates', label: 'Duplicates skipped', render: (h) => [count(h.duplicates)] },
-  { key: 'lagMs', label: 'Lag', render: (h) => [ms(h.lagMs), 'ms'] },
-  { key: 'batchP50Ms', label: 'Batch p50', render: (h) => [ms(h.batchP50Ms), 'ms'] },
-  { key: 'batchP99Ms', label: 'Batch p99', render: (h) => [ms(h.batchP99Ms), 'ms'] },
+  { key: 'lagS', label: 'Newest reading age', render: (h) => [h.lagS == null ? '—' : h.lagS.toFixed(1), 's'], warn: (h) => (h.lagS ?? 0) > 30 },
+  { key: 'flushP50Ms', label: 'Commit p50', render: (h) => [ms(h.flushP50Ms), 'ms'] },
+  { key: 'flushP99Ms', label: 'Commit p99', render: (h) => [ms(h.flushP99Ms), 'ms'] },
+  { key: 'ackP99Ms', label: 'Receive → ack p99', render: (h) => [ms(h.ackP99Ms), 'ms'] },
+  { key: 'queued', label: 'Awaiting commit', render: (h) => [count(h.queued)] },
+  { key: 'flushErrors', label: 'Failed commits', render: (h) => [count(h.flushErrors)], warn: (h) => h.flushErrors > 0 || !h.dbUp },
+  { key: 'mqttConnected', label: 'Broker link', render: (h) => [h.mqttConnected ? 'up' : 'down'], warn: (h) => !h.mqttConnected },
 ];
 
 export function IngestHealthPanel() {
   const health = useIngestHealth();
   const now = useNow();
-  const h = health.data;
+  const h = health.data?.health;
 
   return (
     <Panel title="Ingest health">
       {health.isError ? (
         <p className="text-sm text-attention-1-ink">{health.error.message}</p>
-      ) : !h ? (
+      ) : health.isPending ? (
         <p className="text-sm text-ink-muted">Loading…</p>
+      ) : !h ? (
+        <p className="text-sm text-ink-muted">No figures from the ingest worker yet: it publishes them every 30 s once connected.</p>
       ) : (
         <>
           <dl className="grid grid-cols-2 gap-3 sm:grid-cols-4">
@@ -47,7 +53,7 @@ export function IngestHealthPanel() {
             })}
           </dl>
           <p className="mt-3 text-sm text-ink-muted">
-            {h.updatedAt ? `Figures from the ingest worker, updated ${formatAge((now - Date.parse(h.updatedAt)) / 1000)}.` : 'No figures from the ingest worker yet.'}
+            Figures from the ingest worker since {new Date(h.startedAt).toLocaleString('en-GB')}, updated {formatAge((now - Date.parse(h.at)) / 1000)}.
           </p>
         </>
       )}

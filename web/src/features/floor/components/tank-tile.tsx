@@ -5,6 +5,8 @@ import { BandBar } from '../../../components/ui/band-bar';
 import { BandState } from '../../../components/ui/band-state';
 import { FreshnessLabel } from '../../../components/ui/freshness-label';
 import { Quantity } from '../../../components/ui/quantity';
+import { PriorityPill } from '../../../components/ui/priority-pill';
+import { useTankAlarm, type TankAlarmBadge } from '../../../lib/tank-alarms';
 import { formatAge, formatEhV, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
 import type { TankStatus } from './tank-status';
 
@@ -26,6 +28,16 @@ function describe(tank: TankSummary, status: TankStatus): string {
   return `${parts.join(', ')}. Open tank page.`;
 }
 
+/** Worst open alarm of the tank: pill by priority (shape + text), count, pulsing while unacknowledged. */
+function TileAlarm({ alarm }: { alarm: TankAlarmBadge }) {
+  return (
+    <span className="ml-auto flex shrink-0 items-center gap-1" data-testid="tile-alarm" data-priority={alarm.priority} data-unack={alarm.unacknowledged} title={alarm.label}>
+      <PriorityPill priority={alarm.priority} pulse={alarm.unacknowledged > 0} />
+      {alarm.count > 1 && <span className="text-xs font-semibold text-ink-muted">+{alarm.count - 1}</span>}
+    </span>
+  );
+}
+
 function Row({ label, children }: { label: string; children: ReactNode }) {
   return (
     <div className="flex items-baseline justify-between gap-2">
@@ -37,6 +49,7 @@ function Row({ label, children }: { label: string; children: ReactNode }) {
 
 export function TankTile({ tank, status }: { tank: TankSummary; status: TankStatus }) {
   const latest = tank.latest;
+  const alarm = useTankAlarm(tank.id);
   const out = status.kind === 'live' && status.position !== 'in';
   const stale = status.kind === 'stale';
   const frame =
@@ -49,7 +62,7 @@ export function TankTile({ tank, status }: { tank: TankSummary; status: TankStat
   return (
     <Link
       to={`/tanks/${tank.id}`}
-      aria-label={describe(tank, status)}
+      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}`}
       data-testid="tank-tile"
       data-tag={tank.tag}
       data-ts={latest?.ts ?? ''}
@@ -59,6 +72,7 @@ export function TankTile({ tank, status }: { tank: TankSummary; status: TankStat
         <div className="flex min-w-0 items-baseline gap-2">
           <span className={`font-bold leading-none tracking-tight ${TAG}`}>{tank.tag}</span>
           <span className={`truncate text-ink-muted ${DETAIL}`}>{tank.name}</span>
+          {alarm && <TileAlarm alarm={alarm} />}
         </div>
 
         {status.kind === 'offline' || status.kind === 'no-probe' || status.kind === 'no-reading' ? (

@@ -1,0 +1,68 @@
+import { Router } from 'express';
+import type { Role } from '../../../../shared/schemas/auth.ts';
+import {
+  acknowledgeSchema, activeQuerySchema, commentSchema, eventsAfterQuerySchema, figuresQuerySchema, historyQuerySchema,
+  oosSchema, returnToServiceSchema, shelveSchema,
+} from '../../../../shared/schemas/alarms.ts';
+import { idParamSchema } from '../../../../shared/schemas/plant.ts';
+import { requireRole, requireSignIn } from '../../middleware/auth.ts';
+import { body, params, query } from '../../middleware/validate.ts';
+import { alarmsService as svc } from './alarms.service.ts';
+import { definitionsRouter } from './definitions.router.ts';
+
+/** Who may acknowledge and shelve (domain.md 5 and the issue); everyone signed in sees and comments. */
+export const ACK_ROLES: Role[] = ['supervisor', 'engineer', 'admin'];
+/** Out of service is a maintenance decision. */
+export const SERVICE_ROLES: Role[] = ['metallurgist', 'admin'];
+
+export function alarmsRouter(): Router {
+  const r = Router();
+  r.use(requireSignIn);
+  r.get('/active', async (req, res) => {
+    res.json(await svc.active(query(activeQuerySchema, req)));
+  });
+  r.get('/summary', async (_req, res) => {
+    res.json(await svc.summary());
+  });
+  r.get('/events', async (req, res) => {
+    const q = query(eventsAfterQuerySchema, req);
+    res.json(await svc.eventsAfter(q.after, q.limit));
+  });
+  r.get('/history', async (req, res) => {
+    res.json(await svc.history(query(historyQuerySchema, req)));
+  });
+  r.get('/history/export', async (req, res) => {
+    const csv = await svc.historyCsv(query(historyQuerySchema, req));
+    res.type('text/csv').attachment(`alarm-history-${new Date().toISOString().slice(0, 10)}.csv`).send(csv);
+  });
+  r.get('/figures', async (req, res) => {
+    const q = query(figuresQuerySchema, req);
+    res.json(await svc.figures(q.from, q.to, q.site));
+  });
+  r.get('/instances/:id', async (req, res) => {
+    res.json(await svc.instance(params(idParamSchema, req).id));
+  });
+  r.post('/instances/:id/acknowledge', requireRole(...ACK_ROLES), async (req, res) => {
+    res.json(await svc.acknowledge(params(idParamSchema, req).id, req.user!, body(acknowledgeSchema, req).comment));
+  });
+  r.post('/instances/:id/shelve', requireRole(...ACK_ROLES), async (req, res) => {
+    res.json(await svc.shelve(params(idParamSchema, req).id, req.user!, body(shelveSchema, req)));
+  });
+  r.post('/instances/:id/unshelve', requireRole(...ACK_ROLES), async (req, res) => {
+    res.json(await svc.unshelve(params(idParamSchema, req).id, req.user!, body(acknowledgeSchema, req).comment));
+  });
+  r.post('/instances/:id/comment', async (req, res) => {
+    res.status(201).json(await svc.comment(params(idParamSchema, req).id, req.user!, body(commentSchema, req).text));
+  });
+  r.post('/tanks/:id/acknowledge', requireRole(...ACK_ROLES), async (req, res) => {
+    res.json(await svc.acknowledgeTank(params(idParamSchema, req).id, req.user!, body(acknowledgeSchema, req).comment));
+  });
+  r.post('/definitions/:id/out-of-service', requireRole(...SERVICE_ROLES), async (req, res) => {
+    res.json(await svc.definitionAction(params(idParamSchema, req).id, 'remove-from-service', req.user!, body(oosSchema, req).reason));
+  });
+  r.post('/definitions/:id/return-to-service', requireRole(...SERVICE_ROLES), async (req, res) => {
+    res.json(await svc.definitionAction(params(idParamSchema, req).id, 'return-to-service', req.user!, body(returnToServiceSchema, req).comment));
+  });
+  definitionsRouter(r);
+  return r;
+}

@@ -1,0 +1,60 @@
+import { KIND_INFO, type AlarmKind, type Priority } from '../../../../shared/alarms/kinds.ts';
+import type { AlarmHow, AlarmState } from '../../../../shared/alarms/states.ts';
+import type { AlarmEventView, AlarmView } from '../../../../shared/schemas/alarms.ts';
+
+/** Row shapes and their mapping to the API views; shared by the repository and the live feed. */
+const iso = (d: Date | string | null): string | null => (d === null ? null : new Date(d).toISOString());
+
+export const INSTANCE_SELECT = `SELECT i.*, d.kind, d.cause, d.consequence, d.action, d.response_min,
+    t.tag AS tank_tag, t.name AS tank_name, c.id AS circuit_id, c.tag AS circuit_tag, s.tag AS site_tag
+  FROM alarm_instances i
+  JOIN alarm_definitions d ON d.id = i.definition_id
+  JOIN tanks t ON t.id = i.tank_id
+  JOIN circuits c ON c.id = t.circuit_id
+  JOIN sites s ON s.id = c.site_id`;
+
+export type InstanceRow = {
+  id: number; definition_id: number; tank_id: number; priority: Priority; state: AlarmState; condition_active: number;
+  opened_at: Date; activated_at: Date | null; unack_since: Date | null; acked_at: Date | null; acked_by: string | null;
+  closed_at: Date | null; shelved_until: Date | null; shelved_reason: string | null; shelved_by: string | null; oos_reason: string | null;
+  first_value: number | null; limit_value: number | null; last_value: number | null; last_value_at: Date | null; last_event_id: number;
+  kind: AlarmKind; cause: string; consequence: string; action: string; response_min: number;
+  tank_tag: string; tank_name: string; circuit_id: number; circuit_tag: string; site_tag: string;
+};
+
+export function toAlarmView(r: InstanceRow): AlarmView {
+  return {
+    id: r.id, definitionId: r.definition_id, kind: r.kind, label: KIND_INFO[r.kind].label, priority: r.priority, unit: KIND_INFO[r.kind].unit,
+    tankId: r.tank_id, tankTag: r.tank_tag, tankName: r.tank_name, circuitId: r.circuit_id, circuitTag: r.circuit_tag, siteTag: r.site_tag,
+    state: r.state, conditionActive: r.condition_active === 1,
+    openedAt: iso(r.opened_at)!, activatedAt: iso(r.activated_at), unackSince: iso(r.unack_since), closedAt: iso(r.closed_at),
+    ackedAt: iso(r.acked_at), ackedBy: r.acked_by,
+    shelvedUntil: iso(r.shelved_until), shelvedReason: r.shelved_reason, shelvedBy: r.shelved_by, oosReason: r.oos_reason,
+    firstValue: r.first_value, limitValue: r.limit_value, lastValue: r.last_value, lastValueAt: iso(r.last_value_at),
+    rationalisation: { cause: r.cause, consequence: r.consequence, action: r.action, responseMin: r.response_min },
+    lastEventId: r.last_event_id,
+  };
+}
+
+export const EVENT_SELECT = `SELECT e.*, d.kind AS alarm_kind, i.priority, t.tag AS tank_tag, s.tag AS site_tag
+  FROM alarm_events e
+  JOIN alarm_instances i ON i.id = e.instance_id
+  JOIN alarm_definitions d ON d.id = e.definition_id
+  JOIN tanks t ON t.id = e.tank_id
+  JOIN circuits c ON c.id = t.circuit_id
+  JOIN sites s ON s.id = c.site_id`;
+
+export type EventRow = {
+  id: number; instance_id: number; definition_id: number; tank_id: number; at: Date; kind: string; from_state: AlarmState;
+  to_state: AlarmState; condition_active: number; value: number | null; limit_value: number | null; by_user_id: number | null;
+  by_name: string | null; how: AlarmHow; comment: string | null; alarm_kind: AlarmKind; priority: Priority; tank_tag: string; site_tag: string;
+};
+
+export function toEventView(r: EventRow): AlarmEventView {
+  return {
+    id: r.id, instanceId: r.instance_id, definitionId: r.definition_id, tankId: r.tank_id, tankTag: r.tank_tag, siteTag: r.site_tag,
+    alarmKind: r.alarm_kind, priority: r.priority, kind: r.kind, fromState: r.from_state, toState: r.to_state,
+    conditionActive: r.condition_active === 1, at: iso(r.at)!, byUserId: r.by_user_id, byName: r.by_name, how: r.how,
+    comment: r.comment, value: r.value, limit: r.limit_value,
+  };
+}

@@ -1,0 +1,85 @@
+import type { Server, Socket } from 'socket.io';
+import { QueryTypes, type Sequelize } from 'sequelize';
+import type { AlarmEventView } from '../../../shared/schemas/alarms.ts';
+import { Site } from '../db/models.ts';
+import { logger } from '../lib/logger.ts';
+import { EVENT_SELECT, toEventView, type EventRow } from '../modules/alarms/views.ts';
+
+/**
+ * Alarm events to browsers. The table is the feed: every ~250 ms the API reads alarm_events
+ * with id > last and emits `alarm:event` to the site's room; this works whichever process wrote
+ * the event (ingest, notifier, another API node). Event ids commit in order (see the alarms
+ * migration), so "id > last" never skips one.
+ *
+ * Catch-up: a client sends the last id it has in `handshake.auth.lastAlarmEventId` (or later
+ * with `alarm:since`) and gets every event after it from the table; when more than REPLAY_MAX
+ * are missing it gets `alarm:resync` and reloads the lists instead. Clients drop ids they have.
+ */
+export const REPLAY_MAX = 2000;
+const POLL_MS = 250;
+const REPLAY_INTERVAL_MS = 1000;
+
+export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs?: number } = {}) {
+  const db = opts.db ?? (() => Site.sequelize!);
+  let last: number | null = null;
+  let busy = false;
+
+  const fetchAfter = async (after: number, limit: number): Promise<AlarmEventView[]> =>
+    (await db().query<EventRow>(`${EVENT_SELECT} WHERE e.id > :after ORDER BY e.id LIMIT :limit`, { replacements: { after, limit }, type: QueryTypes.SELECT })).map(toEventView);
+
+  const poll = async () => {
+    if (busy) return;
+    busy = true;
+    try {
+      if (last === null) {
+        const [row] = await db().query<{ id: number | null }>('SELECT MAX(id) AS id FROM alarm_events', { type: QueryTypes.SELECT });
+        last = row?.id ?? 0;
+      }
+      for (const e of await fetchAfter(last, 500)) {
+        io.to(`site:${e.siteTag}`).emit('alarm:event', e);
+        last = e.id;
+      }
+    } catch (err) {
+      logger.warn({ err: (err as Error).message }, 'alarm feed poll failed');
+    } finally {
+      busy = false;
+    }
+  };
+  void poll();
+  const timer = setInterval(poll, opts.pollMs ?? POLL_MS);
+
+  /** Joins the site rooms before reading, so nothing falls between the replay and the live feed. */
+  const replay = async (socket: Socket, after: number) => {
+    const sites = await db().query<{ tag: string }>('SELECT tag FROM sites', { type: QueryTypes.SELECT });
+    await Promise.all(sites.map((s) => socket.join(`site:${s.tag}`)));
+    const events = await fetchAfter(after, REPLAY_MAX + 1);
+    if (events.length > REPLAY_MAX) return void socket.emit('alarm:resync', { lastEventId: events[events.length - 1].id });
+    for (const e of events) socket.emit('alarm:event', e);
+  };
+
+  const onConnection = (socket: Socket) => {
+    const from = Number(socket.handshake.auth?.lastAlarmEventId);
+    if (Number.isInteger(from) && from >= 0) replay(socket, from).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
+    // Every signed-in role sees every alarm (domain.md 5), so the only check is the session the handshake already passed;
+    // one replay per second per socket keeps a misbehaving client from loading the database.
+    let lastReplayMs = 0;
+    socket.on('alarm:since', (after: unknown) => {
+      const n = Number(after);
+      if (!Number.isInteger(n) || n < 0 || Date.now() - lastReplayMs < REPLAY_INTERVAL_MS) return;
+      lastReplayMs = Date.now();
+      replay(socket, n).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
+    });
+  };
+  io.on('connection', onConnection);
+
+  return {
+    /** For tests: the id the feed has emitted up to. */
+    get lastEmitted() {
+      return last;
+    },
+    close() {
+      clearInterval(timer);
+      io.off('connection', onConnection);
+    },
+  };
+}

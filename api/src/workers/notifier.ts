@@ -1,0 +1,84 @@
+/**
+ * Notifier process: the alarm engine's timer (stale probes, shelve expiry, offline suppression,
+ * probe-check and calibration-drift alarms) and e-mail escalation from the outbox.
+ *   node --import tsx api/src/workers/notifier.ts
+ * Env (api/src/config.ts): DATABASE_URL, SMTP_URL, MAIL_FROM, PUBLIC_URL (default
+ * http://127.0.0.1:PORT), JWT_SECRET (signs the acknowledge links).
+ * Safe to run more than once and to kill at any moment: the outbox key (instance, step) and the
+ * alarm lock make every step happen once; unsent mail stays in the outbox for the next start.
+ */
+import { config } from '../config.ts';
+import { initModels } from '../db/models.ts';
+import { createSequelize } from '../db/sequelize.ts';
+import { logger } from '../lib/logger.ts';
+import { createAlarmEngine } from '../modules/alarms/engine.ts';
+import { assaysService } from '../modules/assays/assays.service.ts';
+import { probeChecksService } from '../modules/probe-checks/probe-checks.service.ts';
+import { createNotifier } from '../modules/notify/notifier.ts';
+
+const TICK_MS = 5_000;
+const MAIL_MS = 2_000;
+
+async function main(): Promise<void> {
+  const cfg = config();
+  const sequelize = createSequelize(cfg.DATABASE_URL, 4);
+  initModels(sequelize);
+  for (let attempt = 1; ; attempt += 1) {
+    try {
+      await sequelize.authenticate();
+      break;
+    } catch (err) {
+      if (attempt >= 30) throw err;
+      logger.warn({ err: (err as Error).message }, 'database not reachable yet; retrying');
+      await new Promise((r) => setTimeout(r, 1000));
+    }
+  }
+  const engine = createAlarmEngine({
+    sequelize,
+    inputs: {
+      calibrationDriftMv: (tankId) => assaysService.latestAssayDriftMv(tankId),
+      probeCheckDue: async (now) => (await probeChecksService.due(now)).map((d) => ({ tankId: d.tankId, dueAt: d.dueAt })),
+    },
+  });
+  const notifier = createNotifier({
+    sequelize, smtpUrl: cfg.SMTP_URL, mailFrom: cfg.MAIL_FROM, ackSecret: cfg.JWT_SECRET,
+    publicUrl: cfg.PUBLIC_URL ?? `http://127.0.0.1:${cfg.PORT}`,
+  });
+  logger.info({ smtp: cfg.SMTP_URL.replace(/\/\/[^@/]*@/, '//***@') }, 'notifier running');
+
+  let stopping = false;
+  let lastTick = 0;
+  // One loop, one pass at a time: a slow database or relay delays the next pass, never overlaps it.
+  const loop = async () => {
+    while (!stopping) {
+      const started = Date.now();
+      try {
+        if (started - lastTick >= TICK_MS) {
+          lastTick = started;
+          await engine.tick();
+        }
+        const r = await notifier.runOnce();
+        if (r.queued || r.sent || r.failed || r.cancelled) logger.info(r, 'escalation pass');
+      } catch (err) {
+        logger.error({ err: (err as Error).message }, 'notifier pass failed; retrying');
+      }
+      await new Promise((r) => setTimeout(r, Math.max(100, MAIL_MS - (Date.now() - started))));
+    }
+  };
+  const running = loop();
+
+  const stop = async () => {
+    stopping = true;
+    await running;
+    notifier.close();
+    await sequelize.close();
+    process.exit(0);
+  };
+  process.once('SIGTERM', stop);
+  process.once('SIGINT', stop);
+}
+
+main().catch((err) => {
+  logger.fatal({ err: (err as Error).message }, 'notifier failed to start');
+  process.exit(1);
+});

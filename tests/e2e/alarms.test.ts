@@ -1,0 +1,76 @@
+/**
+ * Browser test of alarms across screens against the whole running app behind E2E_BASE_URL
+ * (skipped when unset; demo users' password in E2E_PASSWORD). Needs the simulator and the
+ * ingest worker calling the alarm engine: a feed upset on a tank must raise its P1 alarm.
+ * An operator watches the Floor, a supervisor acknowledges on the Alarm desk, both screens change.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+
+const BASE_URL = process.env.E2E_BASE_URL;
+const PASSWORD = process.env.E2E_PASSWORD;
+const SHOTS = path.resolve('test-results');
+const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-sync'];
+const url = (p: string) => new URL(p, BASE_URL).href;
+
+async function signedIn(browser: Browser, role: string): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
+  const context = await browser.newContext({ viewport: { width: 1920, height: 1080 } });
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto(url('/sign-in'));
+  await page.getByLabel('E-mail').fill(`${role}@kestrel.example`);
+  await page.getByLabel('Password').fill(PASSWORD!);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'), { timeout: 15_000 });
+  return { context, page, errors };
+}
+
+type Alarm = { id: number; tankId: number; tankTag: string; priority: number; kind: string; state: string };
+
+describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser', () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    if (!PASSWORD) throw new Error("E2E_PASSWORD must be set to the demo users' password");
+    fs.mkdirSync(SHOTS, { recursive: true });
+    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  });
+  afterAll(async () => browser?.close());
+
+  it('when a feed upset drops a tank below band, then the operator sees the P1 alarm on the Floor, the supervisor acknowledges it on the Alarm desk and both screens change', async () => {
+    const admin = await signedIn(browser, 'admin');
+    const operator = await signedIn(browser, 'operator');
+    const supervisor = await signedIn(browser, 'supervisor');
+    const headers = { 'X-Ferrisight-Csrf': '1' };
+    const active = async () => ((await (await admin.page.request.get(url('/api/alarms/active'))).json()) as { alarms: Alarm[] }).alarms;
+    // A tank of Train A without an open ratio alarm, so the alarm seen is the one this test raises.
+    const busy = new Set((await active()).filter((a) => a.kind === 'ratio-below-band').map((a) => a.tankTag));
+    const tag = ['A1', 'A2', 'A3', 'A4', 'A5', 'A6'].find((t) => !busy.has(t));
+    expect(tag).toBeDefined();
+    const fault = { fault: 'feed-upset', probeTag: `${tag}-ORP` };
+    expect((await admin.page.request.post(url('/api/admin/simulator'), { headers, data: { ...fault, action: 'start' } })).status()).toBe(202);
+    try {
+      await operator.page.goto(url('/'));
+      const pill = operator.page.locator(`[data-testid="tank-tile"][data-tag="${tag}"] [data-testid="tile-alarm"][data-priority="1"]`);
+      await pill.waitFor({ timeout: 120_000 });
+      expect(await pill.getAttribute('data-unack')).not.toBe('0');
+      await operator.page.screenshot({ path: path.join(SHOTS, 'alarm-floor-new.png') });
+
+      const alarm = (await active()).find((a) => a.tankTag === tag && a.kind === 'ratio-below-band')!;
+      await supervisor.page.goto(url(`/alarm-desk?tank=${alarm.tankId}`));
+      const row = supervisor.page.locator(`[data-testid="alarm-row"][data-alarm-id="${alarm.id}"]`);
+      await row.getByRole('button', { name: /^Acknowledge/ }).click();
+      await row.locator('[data-testid="alarm-state"][data-state="acknowledged"]').waitFor({ timeout: 10_000 });
+      await supervisor.page.screenshot({ path: path.join(SHOTS, 'alarm-desk-acknowledged.png') });
+
+      await operator.page.locator(`[data-testid="tank-tile"][data-tag="${tag}"] [data-testid="tile-alarm"][data-unack="0"]`).waitFor({ timeout: 10_000 });
+      await operator.page.screenshot({ path: path.join(SHOTS, 'alarm-floor-acknowledged.png') });
+      expect([...admin.errors, ...operator.errors, ...supervisor.errors]).toEqual([]);
+    } finally {
+      await admin.page.request.post(url('/api/admin/simulator'), { headers, data: { ...fault, action: 'clear' } });
+      for (const s of [admin, operator, supervisor]) await s.context.close();
+    }
+  }, 180_000);
+});

@@ -1,0 +1,26 @@
+import { useMemo } from 'react';
+import type { AlarmView } from '@shared/schemas/alarms';
+import type { TankAlarmBadge } from '../../../lib/tank-alarms';
+import { useActiveAlarms } from '../api/get-active-alarms';
+import { isAnnunciated, isUnacknowledged } from '../components/alarm-states';
+
+/**
+ * Worst annunciated alarm per tank (shelved, suppressed and out-of-service ones are not
+ * annunciated); `unacknowledged` counts those of that worst priority, which is what the pill shows.
+ */
+export function tankBadges(alarms: readonly AlarmView[]): Map<number, TankAlarmBadge> {
+  const out = new Map<number, TankAlarmBadge>();
+  for (const a of alarms) {
+    if (!isAnnunciated(a.state)) continue;
+    const unack = isUnacknowledged(a.state) ? 1 : 0;
+    const b = out.get(a.tankId);
+    if (!b || a.priority < b.priority) out.set(a.tankId, { priority: a.priority, count: (b?.count ?? 0) + 1, unacknowledged: unack, label: a.label });
+    else out.set(a.tankId, { ...b, count: b.count + 1, unacknowledged: b.unacknowledged + (a.priority === b.priority ? unack : 0) });
+  }
+  return out;
+}
+
+export function useTankAlarmBadges(): Map<number, TankAlarmBadge> {
+  const alarms = useActiveAlarms().data?.alarms;
+  return useMemo(() => tankBadges(alarms ?? []), [alarms]);
+}

@@ -1,0 +1,11 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ShiftInput, ShiftView } from '@shared/schemas/roster';
+import { api } from '../../../lib/api-client';
+import { rosterKeys } from './roster-keys';
+
+export const createShift = (input: ShiftInput) => api.post<{ shift: ShiftView }>('/api/roster/shifts', input).then((r) => r.shift);
+
+export function useCreateShift() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: createShift, onSuccess: () => qc.invalidateQueries({ queryKey: rosterKeys.all }) });
+}
