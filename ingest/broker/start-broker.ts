@@ -1,0 +1,127 @@
+import { mkdirSync } from 'node:fs';
+import net from 'node:net';
+import path from 'node:path';
+import { Aedes, type AuthenticateError, type Client } from 'aedes';
+import aedesPersistenceLevel from 'aedes-persistence-level';
+import { Level } from 'level';
+import type { Logger } from 'pino';
+import { logger as rootLogger } from '../../api/src/lib/logger.ts';
+import { createIngestPool } from '../db.ts';
+import { clientIdRefusal, publishRefusal, subscribeRefusal } from './acl.ts';
+import { IdentityDirectory, type Identity } from './identity.ts';
+
+export type BrokerOptions = {
+  /** TCP port; 0 picks a free one (tests). */
+  port: number;
+  host?: string;
+  databaseUrl: string;
+  /** The level database lives in `${dataDir}/broker`. */
+  dataDir: string;
+  servicePassword: string;
+  serviceUser?: string;
+  maxConnections?: number;
+  log?: Logger;
+};
+
+export type RunningBroker = { port: number; broker: Aedes; close: () => Promise<void> };
+
+const authError = (message: string, returnCode: 4 | 5): AuthenticateError => Object.assign(new Error(message), { returnCode });
+
+/**
+ * Embedded aedes broker with sessions on disk (aedes-persistence-level), so QoS 1 messages not
+ * yet acknowledged by the ingest worker survive a broker restart. No anonymous clients;
+ * topic rules in acl.ts.
+ */
+export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
+  const log = opts.log ?? rootLogger.child({ component: 'broker' });
+  const maxConnections = opts.maxConnections ?? 2000;
+  const pool = createIngestPool(opts.databaseUrl, 2);
+  const directory = new IdentityDirectory(pool, { username: opts.serviceUser ?? 'ferrisight-service', password: opts.servicePassword });
+  const identities = new WeakMap<Client, Identity>();
+  const levelDir = path.join(opts.dataDir, 'broker');
+  mkdirSync(levelDir, { recursive: true });
+  const db = new Level<string, Buffer>(levelDir);
+
+  const broker = await Aedes.createBroker({
+    persistence: aedesPersistenceLevel(db),
+    // A frozen subscriber (e.g. a worker stuck on a dead DB) must not stall delivery to
+    // everyone: after 10 s without draining it is disconnected; its session keeps the messages.
+    drainTimeout: 10_000,
+    concurrency: 500,
+    connectTimeout: 10_000,
+    heartbeatInterval: 60_000,
+    preConnect: (client, _packet, done) => {
+      // aedes drops a QoS 1 packet whose brokerCounter is below the last one delivered to that
+      // client ("dedupe", meant for broker clusters). With level persistence, concurrent publishes
+      // finish enqueueing out of order, so live packets were silently skipped (≈1 % at 200 msg/s;
+      // a persistent subscriber got them only at its next reconnect). moscajs/aedes#955, #994.
+      // One broker never sees a packet twice through its emitter; duplicates are idempotent anyway.
+      (client as unknown as { duplicates: object }).duplicates = new Proxy({}, { get: () => undefined, set: () => true });
+      if (broker.connectedClients >= maxConnections) {
+        log.warn({ maxConnections }, 'connection refused: cap reached');
+        return done(null, false);
+      }
+      done(null, true);
+    },
+    authenticate: (client, username, password, done) => {
+      directory.verify(username, password).then((identity) => {
+        if (!identity) {
+          log.warn({ clientId: client.id, username }, 'mqtt authentication failed');
+          return done(authError('bad user name or password', 4), false);
+        }
+        const refusal = clientIdRefusal(identity, client.id);
+        if (refusal) {
+          log.warn({ clientId: client.id, username, refusal }, 'mqtt client id refused');
+          return done(authError(refusal, 5), false);
+        }
+        identities.set(client, identity);
+        done(null, true);
+      }, (err: Error) => {
+        log.error({ err: err.message, username }, 'device lookup failed');
+        done(authError('server unavailable', 5), false);
+      });
+    },
+    authorizePublish: (client, packet, done) => {
+      if (!client) return done(); // the broker's own $SYS messages
+      const identity = identities.get(client);
+      const refusal = publishRefusal(identity, packet.topic, packet.payload.length);
+      if (refusal) {
+        log.warn({ clientId: client.id, topic: packet.topic.slice(0, 200), refusal }, 'mqtt publish refused');
+        return done(new Error(refusal));
+      }
+      // Devices cannot leave retained messages: a reading is an event, not a state.
+      if (identity?.kind === 'device') packet.retain = false;
+      done();
+    },
+    authorizeSubscribe: (client, sub, done) => {
+      const refusal = subscribeRefusal(identities.get(client));
+      if (refusal) {
+        log.warn({ clientId: client.id, topic: sub.topic.slice(0, 200), refusal }, 'mqtt subscribe refused');
+        return done(null, null); // negated: SUBACK 0x80 and no subscription
+      }
+      done(null, sub);
+    },
+  });
+
+  broker.on('clientError', (client, err) => log.debug({ clientId: client.id, err: err.message }, 'client error'));
+  const server = net.createServer(broker.handle);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(opts.port, opts.host ?? '127.0.0.1', () => resolve());
+  });
+  const port = (server.address() as net.AddressInfo).port;
+  log.info({ port, levelDir, maxConnections }, 'mqtt broker listening');
+
+  return {
+    port,
+    broker,
+    async close() {
+      // Stop accepting first; broker.close() then ends every client, which lets server.close finish.
+      const serverClosed = new Promise<void>((resolve) => server.close(() => resolve()));
+      await new Promise<void>((resolve) => broker.close(() => resolve()));
+      await serverClosed;
+      await db.close().catch(() => undefined);
+      await pool.end().catch(() => undefined);
+    },
+  };
+}

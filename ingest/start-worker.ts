@@ -1,0 +1,113 @@
+import type { Logger } from 'pino';
+import { createSequelize } from '../api/src/db/sequelize.ts';
+import { logger as rootLogger } from '../api/src/lib/logger.ts';
+import { createAlarmEngine } from '../api/src/modules/alarms/engine.ts';
+import { queueAlarmReadings } from '../api/src/modules/alarms/engine-queue.ts';
+import { INTERNAL_PREFIX } from '../shared/schemas/readings.ts';
+import { createIngestPool } from './db.ts';
+import { Flusher } from './flusher.ts';
+import { LivePublisher, toTankLive } from './live.ts';
+import { IngestMetrics } from './metrics.ts';
+import { INVALIDATE_TOPIC, startIntake, type AckMode } from './mqtt-intake.ts';
+import { ProbeCache } from './probe-cache.ts';
+import { deleteExpiredReadings } from './retention.ts';
+
+export const HEALTH_TOPIC = `${INTERNAL_PREFIX}/ingest/health`;
+
+export type WorkerOptions = {
+  databaseUrl: string;
+  mqttUrl: string;
+  username: string;
+  password: string;
+  clientId: string;
+  topicFilter?: string;
+  retentionDays?: number;
+  ackMode?: AckMode;
+  lingerMs?: number;
+  maxReadingsPerFlush?: number;
+  maxQueuedReadings?: number;
+  cacheRefreshMs?: number;
+  healthIntervalMs?: number;
+  retentionIntervalMs?: number;
+  log?: Logger;
+};
+
+export type RunningWorker = {
+  metrics: IngestMetrics;
+  /** Resolves once the broker has confirmed the subscription (first connection). */
+  subscribed: Promise<void>;
+  stop: () => Promise<void>;
+};
+
+/**
+ * Starts the ingest worker in this process (worker.ts is the CLI around it; tests call it
+ * directly). Never throws for a missing database: the flusher retries until it is back.
+ */
+export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
+  const log = opts.log ?? rootLogger.child({ component: 'ingest-worker' });
+  const retentionDays = opts.retentionDays ?? 90;
+  const pool = createIngestPool(opts.databaseUrl, 3);
+  const metrics = new IngestMetrics();
+  const cache = new ProbeCache(pool);
+  await cache.reload().catch((err: Error) => log.warn({ err: err.message }, 'probe cache not loaded yet; will retry'));
+  // Alarms are evaluated from what was committed, off the acknowledgement path.
+  const alarmDb = createSequelize(opts.databaseUrl, 3);
+  const alarms = queueAlarmReadings(createAlarmEngine({ sequelize: alarmDb }), log);
+
+  let live: LivePublisher | null = null;
+  const flusher = new Flusher({
+    pool, cache, metrics, log, retentionDays,
+    // In serial mode nothing else can arrive on the connection while a message waits: never linger.
+    lingerMs: opts.ackMode === 'serial' ? 0 : opts.lingerMs ?? 25,
+    maxReadings: opts.maxReadingsPerFlush ?? 2000,
+    maxQueuedReadings: opts.maxQueuedReadings ?? 20_000,
+    onCommitted: (inserted) => {
+      live?.publish(inserted);
+      alarms.push(inserted.map(toTankLive));
+    },
+  });
+  const reloadCache = () => cache.reload().catch((err: Error) => log.warn({ err: err.message }, 'probe cache reload failed'));
+  const intake = startIntake({
+    mqttUrl: opts.mqttUrl, username: opts.username, password: opts.password, clientId: opts.clientId,
+    topicFilter: opts.topicFilter ?? 'ferrisight/v1/#', ackMode: opts.ackMode ?? 'pipelined', flusher, metrics, log,
+    onInternal: (topic) => {
+      if (topic === INVALIDATE_TOPIC) void reloadCache();
+    },
+  });
+  live = new LivePublisher(intake.client);
+
+  const health = () => {
+    const snap = metrics.snapshot({ queued: flusher.queued, mqttConnected: intake.client.connected });
+    log.info(snap, 'ingest health');
+    if (intake.client.connected) intake.client.publish(HEALTH_TOPIC, JSON.stringify(snap), { qos: 0, retain: true });
+  };
+  let retentionRunning = false;
+  const retention = async () => {
+    if (retentionRunning) return;
+    retentionRunning = true;
+    await deleteExpiredReadings(pool, retentionDays, log).catch((err: Error) => log.warn({ err: err.message }, 'retention run failed'));
+    retentionRunning = false;
+  };
+  const timers = [
+    setInterval(reloadCache, opts.cacheRefreshMs ?? 10_000),
+    setInterval(health, opts.healthIntervalMs ?? 30_000),
+    setInterval(retention, opts.retentionIntervalMs ?? 3_600_000),
+    setTimeout(retention, 60_000),
+  ];
+
+  return {
+    metrics,
+    subscribed: intake.subscribed,
+    async stop() {
+      for (const t of timers) clearTimeout(t);
+      intake.stopTaking();
+      await flusher.stop();
+      // Graceful end writes the PUBACKs of the last commit before DISCONNECT; force after 2 s.
+      await Promise.race([intake.client.endAsync(false), new Promise((r) => setTimeout(r, 2_000))]);
+      if (!intake.client.disconnected) await intake.client.endAsync(true).catch(() => undefined);
+      await alarms.drain();
+      await alarmDb.close().catch(() => undefined);
+      await pool.end().catch(() => undefined);
+    },
+  };
+}

@@ -1,0 +1,105 @@
+import { placeholders, toSqlTs, type PoolConnection } from './db.ts';
+import type { ConvertedReading } from './pipeline.ts';
+import { recomputeRollups } from './rollups.ts';
+
+export type StoreResult = {
+  /** New rows written. */
+  stored: number;
+  /** Same (probe, ts) with the same orpMv and tempC: a redelivery, ignored. */
+  duplicates: number;
+  /** Same (probe, ts) with different values: logged to reading_conflicts, stored row kept. */
+  conflicts: number;
+  /** The readings that became new rows (for live publishing). */
+  inserted: ConvertedReading[];
+};
+
+type Stored = { orpMv: number; tempC: number };
+const CHUNK = 1000;
+
+const keyOf = (probeId: number, sqlTs: string) => `${probeId}|${sqlTs}`;
+
+/**
+ * Locks and reads the rows that already exist for these keys. FOR UPDATE matters: it takes
+ * record and gap locks, so a concurrent writer (a second worker, the API's import) either
+ * waits or deadlocks and retries — it can never insert between our check and our insert.
+ */
+async function lockExisting(conn: PoolConnection, keys: { probeId: number; ts: string }[]): Promise<Map<string, Stored>> {
+  const found = new Map<string, Stored>();
+  for (let i = 0; i < keys.length; i += CHUNK) {
+    const byProbe = new Map<number, string[]>();
+    for (const k of keys.slice(i, i + CHUNK)) {
+      const list = byProbe.get(k.probeId);
+      if (list) list.push(k.ts);
+      else byProbe.set(k.probeId, [k.ts]);
+    }
+    const params: (number | string)[] = [];
+    const where = [...byProbe].map(([probeId, list]) => {
+      params.push(probeId, ...list);
+      return `(probe_id = ? AND ts IN (${list.map(() => '?').join(', ')}))`;
+    });
+    const rows: { probe_id: number; ts: string; orp_mv: number; temp_c: number }[] = await conn.query(
+      `SELECT probe_id, ts, orp_mv, temp_c FROM readings WHERE ${where.join(' OR ')} FOR UPDATE`, params);
+    for (const r of rows) found.set(keyOf(r.probe_id, r.ts), { orpMv: r.orp_mv, tempC: r.temp_c });
+  }
+  return found;
+}
+
+/**
+ * Idempotent store of converted readings, inside the caller's transaction (one per flush).
+ * Primary key (probe_id, ts): an exact duplicate is ignored; a different value for an existing
+ * key is written to reading_conflicts and the first stored value kept. Never INSERT IGNORE:
+ * the insert is a plain INSERT of keys just proven absent under lock, so any surprise is a
+ * loud error that rolls the flush back (and it is retried), never a silent skip.
+ * Touched 1 m and 1 h rollups are recomputed in the same transaction.
+ * @param source who sent the readings, recorded on conflicts (e.g. 'mqtt', 'import:file.csv')
+ */
+export async function storeReadings(conn: PoolConnection, readings: ConvertedReading[], source: string): Promise<StoreResult> {
+  const result: StoreResult = { stored: 0, duplicates: 0, conflicts: 0, inserted: [] };
+  if (readings.length === 0) return result;
+  const firsts = new Map<string, { r: ConvertedReading; ts: string }>();
+  const repeats: { r: ConvertedReading; key: string }[] = [];
+  for (const r of readings) {
+    const ts = toSqlTs(r.tsMs);
+    const key = keyOf(r.probeId, ts);
+    if (firsts.has(key)) repeats.push({ r, key });
+    else firsts.set(key, { r, ts });
+  }
+  const existing = await lockExisting(conn, [...firsts.values()].map(({ r, ts }) => ({ probeId: r.probeId, ts })));
+  const conflicts: { r: ConvertedReading; ts: string; stored: Stored }[] = [];
+  const judge = (r: ConvertedReading, ts: string, stored: Stored) => {
+    if (stored.orpMv === r.orpMv && stored.tempC === r.tempC) result.duplicates += 1;
+    else conflicts.push({ r, ts, stored });
+  };
+  for (const [key, { r, ts }] of firsts) {
+    const stored = existing.get(key);
+    if (stored) judge(r, ts, stored);
+    else result.inserted.push(r);
+  }
+  for (const { r, key } of repeats) {
+    const first = firsts.get(key)!;
+    judge(r, first.ts, existing.get(key) ?? { orpMv: first.r.orpMv, tempC: first.r.tempC });
+  }
+  for (let i = 0; i < result.inserted.length; i += CHUNK) {
+    const rows = result.inserted.slice(i, i + CHUNK);
+    const params = rows.flatMap((r) => [
+      r.probeId, toSqlTs(r.tsMs), r.seq, r.orpMv, r.tempC, r.ehV, r.ratio, r.ferricFraction, r.flag,
+      r.calibrationVersion, toSqlTs(r.receivedAtMs),
+    ]);
+    await conn.query(
+      `INSERT INTO readings (probe_id, ts, seq, orp_mv, temp_c, eh_v, ratio, ferric_fraction, flag, calibration_version, received_at)
+       VALUES ${placeholders(rows.length, 11)}`, params);
+  }
+  for (let i = 0; i < conflicts.length; i += CHUNK) {
+    const rows = conflicts.slice(i, i + CHUNK);
+    const params = rows.flatMap(({ r, ts, stored }) => [
+      r.probeId, ts, stored.orpMv, stored.tempC, r.orpMv, r.tempC, r.seq, source.slice(0, 200), toSqlTs(r.receivedAtMs),
+    ]);
+    await conn.query(
+      `INSERT INTO reading_conflicts (probe_id, ts, stored_orp_mv, stored_temp_c, incoming_orp_mv, incoming_temp_c, incoming_seq, source, received_at)
+       VALUES ${placeholders(rows.length, 9)}`, params);
+  }
+  await recomputeRollups(conn, result.inserted);
+  result.stored = result.inserted.length;
+  result.conflicts = conflicts.length;
+  return result;
+}
