@@ -1,0 +1,19 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { DigestResponse } from '@shared/schemas/digest';
+import { api, withQuery } from '../../../lib/api-client';
+import { digestKeys } from './digest-keys';
+
+/** A shift by its start, a range, or neither (the last closed shift). */
+export type DigestParams = { shiftStart?: string; from?: string; to?: string };
+
+export function getDigest(p: DigestParams, signal?: AbortSignal): Promise<DigestResponse> {
+  return api.get<DigestResponse>(withQuery('/api/digest', p), { signal });
+}
+
+export const digestQueryOptions = (p: DigestParams) =>
+  queryOptions({ queryKey: digestKeys.digest(p), queryFn: ({ signal }) => getDigest(p, signal), staleTime: 60_000 });
+
+/** The digest is a record of the past: no live updates, refreshed on demand. */
+export function useDigest(p: DigestParams) {
+  return useQuery({ ...digestQueryOptions(p), placeholderData: keepPreviousData });
+}
