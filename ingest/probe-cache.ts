@@ -82,8 +82,12 @@ export class ProbeCache implements ProbeLookup {
     return this.loading;
   }
 
-  /** Reloads when some tags are unknown, at most once per minReloadGapMs. */
+  /**
+   * Waits for a reload in progress (so readings that arrive after a calibration change use it),
+   * and reloads when some tags are unknown, at most once per minReloadGapMs.
+   */
   async ensure(tags: Iterable<string>): Promise<void> {
+    if (this.loading) await this.loading.catch(() => undefined);
     for (const tag of tags) {
       if (!this.lookup.probe(tag) && Date.now() - this.loadedAtMs >= this.minReloadGapMs) {
         await this.reload();

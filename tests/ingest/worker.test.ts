@@ -134,4 +134,19 @@ describe('ingest worker, end to end over MQTT', () => {
     expect(rows[0].orp_mv).toBe(390);
     expect(worker.metrics.duplicates).toBeGreaterThanOrEqual(1);
   });
+
+  it('when a calibration changes and the API announces it, then the next reading is converted with the new version', async () => {
+    const id = probeIds.get('LIGHT-1')!;
+    const [{ tank_id: tankId }] = await pool.query('SELECT tank_id FROM probes WHERE id = ?', [id]);
+    await pool.query(
+      "INSERT INTO calibrations (tank_id, version, formal_potential_v, formal_coeff_v_per_k, valid_from, reason, created_at) VALUES (?, 2, 0.700, 0, '2026-01-02', 'test', '2026-01-02')",
+      [tankId]);
+    await service.publishAsync('ferrisight/internal/v1/cache/invalidate', '{}', { qos: 1 });
+    await new Promise((r) => setTimeout(r, 300));
+    await device.publishAsync(readingTopic('kestrel', 'LIGHT-1'), JSON.stringify({ ts: iso(Date.now() - 100), orpMv: 476, tempC: 25, seq: 2 }), { qos: 1 });
+    const row = await waitFor(async () => (await rowsFor(id)).find((r: { seq: number }) => r.seq === 2));
+    expect(row.calibration_version).toBe(2);
+    // Eh 0.675 V against E°′ 0.700 V: 25 mV below → ratio exp(−0.025/0.025693) ≈ 0.378.
+    expect(row.ratio).toBeCloseTo(Math.exp(-0.025 / 0.0256926), 3);
+  });
 });
