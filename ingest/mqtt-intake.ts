@@ -12,7 +12,8 @@ export type IntakeOptions = {
   username: string;
   password: string;
   clientId: string;
-  topicFilter: string;
+  /** null: the caller manages the device subscriptions (ingest/slices.ts); only control topics here. */
+  topicFilter: string | null;
   ackMode: AckMode;
   flusher: Flusher;
   metrics: IngestMetrics;
@@ -55,7 +56,8 @@ export function startIntake(o: IntakeOptions): { client: MqttClient; subscribed:
   const subscribed = new Promise<void>((resolve) => { markSubscribed = resolve; });
   client.on('connect', (connack) => {
     o.log.info({ sessionPresent: connack.sessionPresent, mode }, 'connected to broker');
-    client.subscribe({ [o.topicFilter]: { qos: 1 }, [INVALIDATE_TOPIC]: { qos: 0 } }, (err) => {
+    const filters = o.topicFilter ? { [o.topicFilter]: { qos: 1 as const }, [INVALIDATE_TOPIC]: { qos: 0 as const } } : { [INVALIDATE_TOPIC]: { qos: 0 as const } };
+    client.subscribe(filters, (err) => {
       if (err) o.log.error({ err: err.message }, 'subscribe failed');
       else markSubscribed();
     });

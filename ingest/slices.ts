@@ -20,7 +20,10 @@ export type Tag = { siteTag: string; probeTag: string | null };
 
 /** 'i/n' (1-based) → plan; undefined or '' → null (one worker takes everything). */
 export function parseSlice(value: string | undefined, by: SliceBy = 'site', sharedGroup?: string): SlicePlan | null {
-  if (!value) return null;
+  if (!value) {
+    if (sharedGroup) throw new Error('INGEST_SHARED_GROUP needs INGEST_SLICE=i/n too: it names each worker\'s persistent session');
+    return null;
+  }
   const m = /^(\d+)\/(\d+)$/.exec(value.trim());
   if (!m || Number(m[1]) < 1 || Number(m[1]) > Number(m[2])) throw new Error(`INGEST_SLICE=${value} must be i/n with 1 ≤ i ≤ n, e.g. 1/2`);
   return { index: Number(m[1]), count: Number(m[2]), by, sharedGroup: sharedGroup || undefined };
@@ -79,6 +82,9 @@ export async function loadTags(pool: Pool): Promise<Tag[]> {
 export class SliceSubscriptions {
   private current = '';
   private syncing: Promise<void> | null = null;
+  private markSynced: () => void = () => undefined;
+  /** Resolves once the slice's filters are in place for the first time. */
+  readonly firstSync = new Promise<void>((resolve) => { this.markSynced = resolve; });
 
   constructor(
     private readonly client: MqttClient,
@@ -100,10 +106,12 @@ export class SliceSubscriptions {
       try {
         const { mine, others } = sliceFilters(this.plan, await this.tags(), this.baseFilter);
         const key = mine.join('\n');
-        if (key === this.current || !this.client.connected) return;
+        if (!this.client.connected) return;
+        if (key === this.current) return this.markSynced();
         if (mine.length) await this.client.subscribeAsync(Object.fromEntries(mine.map((f) => [f, { qos: 1 as const }])));
         if (others.length) await this.client.unsubscribeAsync(others);
         this.current = key;
+        this.markSynced();
         this.log.info({ slice: `${this.plan.index}/${this.plan.count}`, by: this.plan.by, filters: mine.length }, 'slice subscriptions in place');
       } catch (err) {
         this.log.warn({ err: (err as Error).message }, 'slice subscription sync failed; retrying at the next refresh');

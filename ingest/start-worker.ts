@@ -11,6 +11,8 @@ import { IngestMetrics } from './metrics.ts';
 import { INVALIDATE_TOPIC, startIntake, type AckMode } from './mqtt-intake.ts';
 import { ProbeCache } from './probe-cache.ts';
 import { deleteExpiredReadings } from './retention.ts';
+import { Lease } from '../api/src/cluster/lease.ts';
+import { loadTags, SliceSubscriptions, type SlicePlan } from './slices.ts';
 
 export const HEALTH_TOPIC = `${INTERNAL_PREFIX}/ingest/health`;
 
@@ -29,6 +31,10 @@ export type WorkerOptions = {
   cacheRefreshMs?: number;
   healthIntervalMs?: number;
   retentionIntervalMs?: number;
+  /** This worker's share of the device topics (README "Scaling out"); unset: all of topicFilter. */
+  slice?: SlicePlan | null;
+  /** Sliced workers run retention under a database lease of this TTL, so one of them does it. */
+  leaseTtlMs?: number;
   log?: Logger;
 };
 
@@ -67,13 +73,19 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
     },
   });
   const reloadCache = () => cache.reload().catch((err: Error) => log.warn({ err: err.message }, 'probe cache reload failed'));
+  const plan = opts.slice ?? null;
+  const topicFilter = opts.topicFilter ?? 'ferrisight/v1/#';
   const intake = startIntake({
     mqttUrl: opts.mqttUrl, username: opts.username, password: opts.password, clientId: opts.clientId,
-    topicFilter: opts.topicFilter ?? 'ferrisight/v1/#', ackMode: opts.ackMode ?? 'pipelined', flusher, metrics, log,
+    topicFilter: plan ? null : topicFilter, ackMode: opts.ackMode ?? 'pipelined', flusher, metrics, log,
     onInternal: (topic) => {
-      if (topic === INVALIDATE_TOPIC) void reloadCache();
+      if (topic === INVALIDATE_TOPIC) void refresh();
     },
   });
+  // Sliced: subscriptions follow the plant (a new site or probe joins its slice at the next refresh).
+  const slices = plan ? new SliceSubscriptions(intake.client, plan, () => loadTags(pool), log, topicFilter) : null;
+  const refresh = () => Promise.all([reloadCache(), slices?.sync()]);
+  const retentionLease = plan ? new Lease(pool, 'ingest-retention', { ttlMs: opts.leaseTtlMs, log }).start() : null;
   live = new LivePublisher(intake.client);
 
   const health = () => {
@@ -83,13 +95,13 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   };
   let retentionRunning = false;
   const retention = async () => {
-    if (retentionRunning) return;
+    if (retentionRunning || (retentionLease && !retentionLease.held)) return;
     retentionRunning = true;
     await deleteExpiredReadings(pool, retentionDays, log).catch((err: Error) => log.warn({ err: err.message }, 'retention run failed'));
     retentionRunning = false;
   };
   const timers = [
-    setInterval(reloadCache, opts.cacheRefreshMs ?? 10_000),
+    setInterval(refresh, opts.cacheRefreshMs ?? 10_000),
     setInterval(health, opts.healthIntervalMs ?? 30_000),
     setInterval(retention, opts.retentionIntervalMs ?? 3_600_000),
     setTimeout(retention, 60_000),
@@ -97,9 +109,10 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
 
   return {
     metrics,
-    subscribed: intake.subscribed,
+    subscribed: slices ? Promise.all([intake.subscribed, slices.firstSync]).then(() => undefined) : intake.subscribed,
     async stop() {
       for (const t of timers) clearTimeout(t);
+      await retentionLease?.stop();
       intake.stopTaking();
       await flusher.stop();
       // Graceful end writes the PUBACKs of the last commit before DISCONNECT; force after 2 s.

@@ -5,6 +5,7 @@
  */
 import { ingestConfig } from '../api/src/config.ts';
 import { logger } from '../api/src/lib/logger.ts';
+import { parseSlice, sliceClientId } from './slices.ts';
 import { startWorker } from './start-worker.ts';
 
 const log = logger.child({ component: 'ingest-worker' });
@@ -12,12 +13,17 @@ const log = logger.child({ component: 'ingest-worker' });
 async function main(): Promise<void> {
   const cfg = ingestConfig();
   if (!cfg.SERVICE_MQTT_PASSWORD) throw new Error('Invalid configuration:\n  SERVICE_MQTT_PASSWORD: required by the ingest worker');
+  // Several workers: each takes its slice under its own session (README "Scaling out").
+  const slice = parseSlice(cfg.INGEST_SLICE, cfg.INGEST_SLICE_BY, cfg.INGEST_SHARED_GROUP);
+  const clientId = sliceClientId(cfg.INGEST_CLIENT_ID, slice);
   const worker = await startWorker({
     databaseUrl: cfg.DATABASE_URL,
     mqttUrl: cfg.MQTT_URL,
     username: cfg.SERVICE_MQTT_USER,
     password: cfg.SERVICE_MQTT_PASSWORD,
-    clientId: cfg.INGEST_CLIENT_ID,
+    clientId,
+    slice,
+    leaseTtlMs: cfg.LEASE_TTL_S * 1000,
     topicFilter: cfg.INGEST_TOPIC_FILTER,
     retentionDays: cfg.RAW_RETENTION_DAYS,
     ackMode: cfg.INGEST_ACK_MODE,
@@ -25,7 +31,7 @@ async function main(): Promise<void> {
     maxReadingsPerFlush: cfg.INGEST_FLUSH_MAX_READINGS,
     log,
   });
-  log.info({ clientId: cfg.INGEST_CLIENT_ID, filter: cfg.INGEST_TOPIC_FILTER, ackMode: cfg.INGEST_ACK_MODE }, 'ingest worker started');
+  log.info({ clientId, filter: cfg.INGEST_TOPIC_FILTER, slice: cfg.INGEST_SLICE, ackMode: cfg.INGEST_ACK_MODE }, 'ingest worker started');
 
   let stopping = false;
   const shutdown = async (signal: string) => {

@@ -9,12 +9,16 @@ import { Calibration, Circuit, Device, Probe, Site, Tank, User, initModels } fro
 import { createSequelize } from '../api/src/db/sequelize.ts';
 import { BCRYPT_COST } from '../api/src/modules/auth/auth.service.ts';
 import { seedDemoAlarms } from './seed/demo-alarms.ts';
+import { seedDemoHistory, type DemoHistorySummary } from './seed/demo-history.ts';
 import { DEMO_CIRCUITS, DEMO_DEVICE, DEMO_SITE } from './seed/demo-plant.ts';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 type DemoUser = { role: Role; email: string; name: string; password: string };
 
-export async function seedDemo(databaseUrl: string, simDevicePassword: string): Promise<boolean> {
+/** history: also write a week of readings, alarms, assays, checks and shift log (npm start does; tests opt in). */
+export type SeedOptions = { history?: boolean; now?: Date; onHistory?: (summary: DemoHistorySummary) => void };
+
+export async function seedDemo(databaseUrl: string, simDevicePassword: string, options: SeedOptions = {}): Promise<boolean> {
   const sequelize = createSequelize(databaseUrl, 2);
   initModels(sequelize);
   try {
@@ -47,6 +51,7 @@ export async function seedDemo(databaseUrl: string, simDevicePassword: string): 
       }
       await seedDemoAlarms(sequelize, transaction);
     });
+    if (options.history) options.onHistory?.(await seedDemoHistory(sequelize, databaseUrl, options.now?.getTime()));
     return true;
   } finally {
     await sequelize.close();
@@ -60,6 +65,9 @@ if (process.argv[1] === fileURLToPath(import.meta.url)) {
     process.stderr.write('DATABASE_URL and SIM_DEVICE_PASSWORD must be set\n');
     process.exit(1);
   }
-  const seeded = await seedDemo(url, pw);
+  const seeded = await seedDemo(url, pw, {
+    history: process.env.DEMO_HISTORY !== 'off',
+    onHistory: (h) => process.stdout.write(`seed: a week of history: ${h.readings} readings, ${h.assays} assays, ${h.probeChecks} probe checks, ${h.alarmActions} alarm events, ${h.logEntries} log entries (${(h.ms / 1000).toFixed(1)} s)\n`),
+  });
   process.stdout.write(seeded ? 'seed: demo plant Kestrel Flats created\n' : 'seed: database already has data, left as is\n');
 }

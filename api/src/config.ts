@@ -30,6 +30,18 @@ const schema = z.object({
   INGEST_ACK_MODE: z.enum(['pipelined', 'serial']).default('pipelined'),
   INGEST_FLUSH_MS: z.coerce.number().int().min(1).max(1000).default(25),
   INGEST_FLUSH_MAX_READINGS: z.coerce.number().int().min(1).max(20_000).default(2000),
+  // Scale-out (README "Scaling out"; ingest/slices.ts, api/src/cluster/).
+  /** 'i/n': this ingest worker's slice of the device topics; unset = one worker takes everything. */
+  INGEST_SLICE: z.string().regex(/^\d+\/\d+$/, 'must be i/n, e.g. 1/2').optional(),
+  INGEST_SLICE_BY: z.enum(['site', 'probe']).default('site'),
+  /** Broker-side balancing ($share/<group>/…) where the site's broker supports it; not aedes. */
+  INGEST_SHARED_GROUP: z.string().regex(/^[A-Za-z0-9_.-]{1,64}$/, 'letters, digits, _ . - only').optional(),
+  /** Set: socket.io across API nodes through the Redis Streams adapter; unset: one API node. */
+  REDIS_URL: z.string().regex(/^rediss?:\/\//, 'must start with redis:// or rediss://').optional(),
+  /** A read replica for read-only trend queries; unset: DATABASE_URL. */
+  DATABASE_READ_URL: z.string().regex(/^mariadb:\/\//, 'must start with mariadb://').optional(),
+  /** Jobs that run once per cluster (escalation, timers, retention, alarm broadcast) move to another process within this. */
+  LEASE_TTL_S: z.coerce.number().int().min(2).max(300).default(15),
 });
 
 export type Config = z.infer<typeof schema>;

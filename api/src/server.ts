@@ -8,6 +8,10 @@ import { logger } from './lib/logger.ts';
 import { createAuthService } from './modules/auth/auth.service.ts';
 import { Bus } from './realtime/bus.ts';
 import { attachRealtime } from './realtime/socket.ts';
+import { createIngestPool } from '../../ingest/db.ts';
+import { Lease } from './cluster/lease.ts';
+import { connectReadReplica } from './cluster/read-db.ts';
+import { connectSocketCluster } from './cluster/socket-cluster.ts';
 
 /** API process: HTTP API, the built web app and socket.io on one port. */
 async function main(): Promise<void> {
@@ -21,7 +25,12 @@ async function main(): Promise<void> {
   if (!bus) logger.warn('SERVICE_MQTT_PASSWORD unset: no live values from the broker');
   const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, dataDir: cfg.DATA_DIR, rawRetentionDays: cfg.RAW_RETENTION_DAYS, ackSecret: cfg.JWT_SECRET, mailDir: path.resolve(cfg.DATA_DIR, 'mail'), secureCookie: cfg.PUBLIC_URL?.startsWith('https://') ?? false });
   const server = http.createServer(app);
-  const realtime = attachRealtime(server, auth, bus);
+  // Several API nodes (README "Scaling out"): socket.io through Redis, alarm broadcast by the lease holder.
+  const cluster = cfg.REDIS_URL ? await connectSocketCluster(cfg.REDIS_URL) : undefined;
+  const leasePool = cluster ? createIngestPool(cfg.DATABASE_URL, 1) : undefined;
+  const alarmLease = leasePool ? new Lease(leasePool, 'alarm-feed', { ttlMs: cfg.LEASE_TTL_S * 1000 }).start() : undefined;
+  const realtime = attachRealtime(server, auth, bus, cluster && alarmLease ? { serverOptions: cluster.options, alarmLease } : undefined);
+  const closeReplica = connectReadReplica(cfg.DATABASE_READ_URL);
 
   server.on('error', (err: NodeJS.ErrnoException) => {
     if (err.code === 'EADDRINUSE') logger.fatal(`Port ${cfg.PORT} is taken: set PORT to a free port`);
@@ -34,6 +43,10 @@ async function main(): Promise<void> {
     logger.info('stopping');
     await realtime.close();
     server.close();
+    await alarmLease?.stop();
+    await leasePool?.end().catch(() => undefined);
+    await cluster?.close();
+    await closeReplica();
     await bus?.close();
     await sequelize.close();
     process.exit(0);

@@ -3,13 +3,14 @@ import { createInterface } from 'node:readline';
 import type { Readable, Writable } from 'node:stream';
 
 const useColour = Boolean(process.stdout.isTTY) && !process.env.NO_COLOR;
-const COLOURS: Record<string, number> = { broker: 35, mail: 34, api: 32, ingest: 33, sim: 36, web: 95, migrate: 90, seed: 90, vite: 90 };
+const COLOURS: Record<string, number> = { broker: 35, mail: 34, api: 32, ingest: 33, sim: 36, web: 95, migrate: 90, seed: 90, vite: 90, redis: 31, lb: 32 };
 export const NAME_WIDTH = 7;
 
 /** "api    │ " in the part's colour. */
 export function prefix(name: string): string {
   const label = `${name.padEnd(NAME_WIDTH)}│ `;
-  const c = COLOURS[name] ?? 37;
+  // Cluster copies (api1, ingest2, …) take their part's colour.
+  const c = COLOURS[name] ?? COLOURS[name.replace(/\d+$/, '')] ?? 37;
   return useColour ? `\x1b[${c}m${label}\x1b[0m` : label;
 }
 

@@ -2,6 +2,7 @@ import type { Server, Socket } from 'socket.io';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { AlarmEventView } from '../../../shared/schemas/alarms.ts';
 import { Site } from '../db/models.ts';
+import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
 import { EVENT_SELECT, toEventView, type EventRow } from '../modules/alarms/views.ts';
 
@@ -14,12 +15,16 @@ import { EVENT_SELECT, toEventView, type EventRow } from '../modules/alarms/view
  * Catch-up: a client sends the last id it has in `handshake.auth.lastAlarmEventId` (or later
  * with `alarm:since`) and gets every event after it from the table; when more than REPLAY_MAX
  * are missing it gets `alarm:resync` and reloads the lists instead. Clients drop ids they have.
+ *
+ * Several API nodes (REDIS_URL): an emit goes through the adapter to every node's sockets, so
+ * only the holder of `lease` polls and emits (one copy per client, not one per node), and a
+ * successor resumes from the holder's saved position. Replays stay per node, from the table.
  */
 export const REPLAY_MAX = 2000;
 const POLL_MS = 250;
 const REPLAY_INTERVAL_MS = 1000;
 
-export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs?: number } = {}) {
+export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs?: number; lease?: Lease } = {}) {
   const db = opts.db ?? (() => Site.sequelize!);
   let last: number | null = null;
   let busy = false;
@@ -29,16 +34,23 @@ export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs
 
   const poll = async () => {
     if (busy) return;
+    if (opts.lease && !opts.lease.held) {
+      last = null;
+      return;
+    }
     busy = true;
     try {
+      if (last === null && opts.lease?.progress != null) last = opts.lease.progress;
       if (last === null) {
         const [row] = await db().query<{ id: number | null }>('SELECT MAX(id) AS id FROM alarm_events', { type: QueryTypes.SELECT });
         last = row?.id ?? 0;
       }
-      for (const e of await fetchAfter(last, 500)) {
+      const events = await fetchAfter(last, 500);
+      for (const e of events) {
         io.to(`site:${e.siteTag}`).emit('alarm:event', e);
         last = e.id;
       }
+      if (events.length && opts.lease) await opts.lease.saveProgress(last);
     } catch (err) {
       logger.warn({ err: (err as Error).message }, 'alarm feed poll failed');
     } finally {

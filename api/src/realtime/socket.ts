@@ -1,5 +1,6 @@
 import type { Server as HttpServer } from 'node:http';
-import { Server } from 'socket.io';
+import { Server, type ServerOptions } from 'socket.io';
+import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
 import { sessionEvents } from '../lib/session-events.ts';
 import type { AuthService } from '../modules/auth/auth.service.ts';
@@ -21,8 +22,13 @@ function cookieValue(header: string | undefined, name: string): string | undefin
  * socket.io on the API server: the same session as HTTP (cookie, or `auth.token` for scripts),
  * rooms per site and per user, disconnected when the token expires or the user is disabled.
  */
-export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus) {
-  const io = new Server(httpServer, { serveClient: false, cors: { origin: false } });
+export type ClusterRealtime = { serverOptions: Partial<ServerOptions>; alarmLease: Lease };
+
+/** `cluster`: several API nodes (api/src/cluster/socket-cluster.ts, README "Scaling out"). */
+export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus, cluster?: ClusterRealtime) {
+  const io = new Server(httpServer, { serveClient: false, cors: { origin: false }, ...cluster?.serverOptions });
+  // Every node gets every live value from the broker itself: each serves its own sockets, else a client would get one copy per node.
+  const live = cluster ? io.local : io;
   const feed = new LiveFeed();
 
   io.use(async (socket, next) => {
@@ -60,19 +66,20 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
   const probeTimer = setInterval(refreshProbes, 60_000);
   bus?.on('latest', (readings) => feed.push(readings));
   const flushTimer = setInterval(() => {
-    for (const [site, readings] of feed.drain()) io.to(`site:${site}`).emit('tank:latest', readings);
+    for (const [site, readings] of feed.drain()) live.to(`site:${site}`).emit('tank:latest', readings);
     for (const f of feed.freshnessChanges(Date.now())) {
       const { siteTag, ...payload } = f;
-      io.to(`site:${siteTag}`).emit('probe:freshness', payload);
+      live.to(`site:${siteTag}`).emit('probe:freshness', payload);
     }
   }, 1000);
 
+  // Through the adapter, so the user's sockets on every node are told (the revocation happened on this one).
   const onRevoked = (userId: number) => {
     io.to(`user:${userId}`).emit('session:expired');
     io.in(`user:${userId}`).disconnectSockets(true);
   };
   sessionEvents.on('revoked', onRevoked);
-  const alarmFeed = attachAlarmFeed(io);
+  const alarmFeed = attachAlarmFeed(io, { lease: cluster?.alarmLease });
 
   return {
     io,

@@ -6,6 +6,8 @@
  * http://127.0.0.1:PORT), JWT_SECRET (signs the acknowledge links).
  * Safe to run more than once and to kill at any moment: the outbox key (instance, step) and the
  * alarm lock make every step happen once; unsent mail stays in the outbox for the next start.
+ * Several notifiers (one per node, README "Scaling out") take turns through the database lease
+ * 'notifier': one works, the others stand by and take over within LEASE_TTL_S of its death.
  */
 import { config } from '../config.ts';
 import { initModels } from '../db/models.ts';
@@ -15,6 +17,8 @@ import { createAlarmEngine } from '../modules/alarms/engine.ts';
 import { assaysService } from '../modules/assays/assays.service.ts';
 import { probeChecksService } from '../modules/probe-checks/probe-checks.service.ts';
 import { createNotifier } from '../modules/notify/notifier.ts';
+import { createIngestPool } from '../../../ingest/db.ts';
+import { Lease } from '../cluster/lease.ts';
 
 const TICK_MS = 5_000;
 const MAIL_MS = 2_000;
@@ -45,6 +49,8 @@ async function main(): Promise<void> {
     publicUrl: cfg.PUBLIC_URL ?? `http://127.0.0.1:${cfg.PORT}`,
   });
   logger.info({ smtp: cfg.SMTP_URL.replace(/\/\/[^@/]*@/, '//***@') }, 'notifier running');
+  const leasePool = createIngestPool(cfg.DATABASE_URL, 1);
+  const lease = new Lease(leasePool, 'notifier', { ttlMs: cfg.LEASE_TTL_S * 1000 }).start();
 
   let stopping = false;
   let lastTick = 0;
@@ -53,12 +59,15 @@ async function main(): Promise<void> {
     while (!stopping) {
       const started = Date.now();
       try {
-        if (started - lastTick >= TICK_MS) {
+        if (!lease.held) {
+          // Standing by: another notifier holds the lease.
+          lastTick = 0;
+        } else if (started - lastTick >= TICK_MS) {
           lastTick = started;
           await engine.tick();
         }
-        const r = await notifier.runOnce();
-        if (r.queued || r.sent || r.failed || r.cancelled) logger.info(r, 'escalation pass');
+        const r = lease.held ? await notifier.runOnce() : undefined;
+        if (r && (r.queued || r.sent || r.failed || r.cancelled)) logger.info(r, 'escalation pass');
       } catch (err) {
         logger.error({ err: (err as Error).message }, 'notifier pass failed; retrying');
       }
@@ -70,6 +79,8 @@ async function main(): Promise<void> {
   const stop = async () => {
     stopping = true;
     await running;
+    await lease.stop();
+    await leasePool.end().catch(() => undefined);
     notifier.close();
     await sequelize.close();
     process.exit(0);

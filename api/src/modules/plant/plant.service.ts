@@ -1,8 +1,8 @@
 import type { SiteSummary, TankSummary, TrendQuery, TrendResponse } from '../../../../shared/schemas/plant.ts';
-import { Site } from '../../db/models.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { plantRepository } from './plant.repository.ts';
 import { queryTrend } from './trend.repository.ts';
+import { onReadReplica } from '../../cluster/read-db.ts';
 
 export const plantService = {
   tree: () => plantRepository.tree(),
@@ -20,7 +20,8 @@ export const plantService = {
   async trend(tankId: number, q: TrendQuery): Promise<TrendResponse> {
     const probe = await plantRepository.probeOfTank(tankId);
     if (!probe) throw AppError.notFound('Tank or its probe');
-    const result = await queryTrend(Site.sequelize!, probe.id, new Date(q.from), new Date(q.to), q.maxPoints, probe.intervalS);
+    // Trends may come from the read replica (DATABASE_READ_URL, README "Scaling out").
+    const result = await onReadReplica((db) => queryTrend(db, probe.id, new Date(q.from), new Date(q.to), q.maxPoints, probe.intervalS));
     return { tankId, ...result };
   },
 };

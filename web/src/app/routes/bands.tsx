@@ -1,6 +1,7 @@
 import { Loading } from '../../components/ui/page-state';
 import { useSessionUser } from '../../features/auth/hooks/use-session-user';
 import { BandsView } from '../../features/bands/components/bands-view';
+import { usePlant } from '../../features/floor/api/get-plant';
 import { plantKeys } from '../../features/floor/api/plant-keys';
 import { queryClient } from '../../lib/query-client';
 import { SCREENS } from '../screens';
@@ -11,10 +12,11 @@ const refreshPlant = () => void queryClient.invalidateQueries({ queryKey: plantK
 
 export function BandsRoute() {
   const user = useSessionUser();
-  if (!user) return <Loading />;
+  const timeZone = usePlant().data?.sites[0]?.timeZone;
+  if (!user || !timeZone) return <Loading />;
   return (
     <RoleGate roles={SCREENS.bands.roles}>
-      <BandsView user={user} onBandChanged={refreshPlant} />
+      <BandsView user={user} timeZone={timeZone} onBandChanged={refreshPlant} />
     </RoleGate>
   );
 }

@@ -11,7 +11,7 @@ export function DoseAdvisorRoute() {
   const tanks = site.circuits.flatMap((c) => c.tanks.map((t) => ({ id: t.id, tag: t.tag, name: t.name })));
   return (
     <RoleGate roles={SCREENS.dose.roles}>
-      <DoseView tanks={tanks} />
+      <DoseView tanks={tanks} timeZone={site.timeZone} />
     </RoleGate>
   );
 }

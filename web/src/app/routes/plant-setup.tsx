@@ -21,7 +21,7 @@ function PlantSetup() {
       <UsersPanel currentUserId={user?.id ?? -1} />
       <div className="grid gap-4 lg:grid-cols-2">
         <SimulatorPanel probes={probes} />
-        <IngestHealthPanel />
+        <IngestHealthPanel timeZone={plant.data?.sites[0]?.timeZone ?? 'UTC'} />
       </div>
       <CaughtMailPanel timeZone={plant.data?.sites[0]?.timeZone ?? 'UTC'} />
     </div>

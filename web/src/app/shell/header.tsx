@@ -1,12 +1,27 @@
 import { NavLink } from 'react-router-dom';
 import type { SessionUser } from '@shared/schemas/auth';
 import { usePlant } from '../../features/floor/api/get-plant';
-import { navFor } from '../screens';
+import { GROUP_NAMES, navFor, type Screen } from '../screens';
 import { AlarmCounters } from './alarm-counters';
 import { ConnectionBadge } from './connection-badge';
+import { NavMenu, navItemClass } from './nav-menu';
 import { SiteClock } from './site-clock';
 import { UserMenu } from './user-menu';
 import { Wordmark } from './wordmark';
+
+type NavEntry = Screen | { group: NonNullable<Screen['group']>; screens: Screen[] };
+
+/** A group with more than one screen the role may open becomes one menu, placed where its first screen was. */
+function navEntries(user: SessionUser): NavEntry[] {
+  const screens = navFor(user.role);
+  const out: NavEntry[] = [];
+  for (const s of screens) {
+    const members = s.group ? screens.filter((x) => x.group === s.group) : [];
+    if (!s.group || members.length < 2) out.push(s);
+    else if (members[0] === s) out.push({ group: s.group, screens: members });
+  }
+  return out;
+}
 
 export function Header({ user }: { user: SessionUser }) {
   const plant = usePlant();
@@ -19,18 +34,15 @@ export function Header({ user }: { user: SessionUser }) {
         {site?.name ?? ''}
       </span>
       <nav aria-label="Screens" className="flex min-w-0 items-center gap-0.5 overflow-x-auto">
-        {navFor(user.role).map((s) => (
-          <NavLink
-            key={s.path}
-            to={s.path}
-            end={s.path === '/'}
-            className={({ isActive }) =>
-              `whitespace-nowrap rounded-md px-2.5 py-1.5 text-sm font-semibold ${isActive ? 'bg-panel-2 text-ink shadow-[inset_0_-3px_0_var(--fs-ink)]' : 'text-ink-muted hover:text-ink'}`
-            }
-          >
-            {s.name}
-          </NavLink>
-        ))}
+        {navEntries(user).map((e) =>
+          'screens' in e ? (
+            <NavMenu key={e.group} id={`nav-${e.group}`} label={GROUP_NAMES[e.group]} screens={e.screens} />
+          ) : (
+            <NavLink key={e.path} to={e.path} end={e.path === '/'} className={({ isActive }) => navItemClass(isActive)}>
+              {e.name}
+            </NavLink>
+          ),
+        )}
       </nav>
       <div className="ml-auto flex shrink-0 items-center gap-3">
         <AlarmCounters />

@@ -1,7 +1,7 @@
 import { Panel } from '../../../components/ui/panel';
 import { Quantity } from '../../../components/ui/quantity';
 import { useNow } from '../../../lib/clock';
-import { formatAge } from '../../../lib/format';
+import { formatAge, formatDateTime } from '../../../lib/format';
 import { useIngestHealth, type IngestHealth } from '../api/get-ingest-health';
 
 const count = (n: number) => n.toLocaleString('en-GB');
@@ -22,7 +22,7 @@ const FIGURES: Array<{ key: keyof IngestHealth; label: string; render: (h: Inges
   { key: 'mqttConnected', label: 'Broker link', render: (h) => [h.mqttConnected ? 'up' : 'down'], warn: (h) => !h.mqttConnected },
 ];
 
-export function IngestHealthPanel() {
+export function IngestHealthPanel({ timeZone }: { timeZone: string }) {
   const health = useIngestHealth();
   const now = useNow();
   const h = health.data?.health;
@@ -53,7 +53,7 @@ export function IngestHealthPanel() {
             })}
           </dl>
           <p className="mt-3 text-sm text-ink-muted">
-            Figures from the ingest worker since {new Date(h.startedAt).toLocaleString('en-GB')}, updated {formatAge((now - Date.parse(h.at)) / 1000)}.
+            Figures from the ingest worker since {formatDateTime(h.startedAt, timeZone)} site time, updated {formatAge((now - Date.parse(h.at)) / 1000)}.
           </p>
         </>
       )}

@@ -11,11 +11,14 @@ import type { DeskContext } from './desk-types';
 
 type Props = DeskContext & { selectedId: number | null; onSelect: (id: number) => void };
 
+const DEFAULT_SPAN_MS = 7 * 86_400_000;
+
 /** Search past alarm episodes by time (site time), tank, priority, kind and text; export what is found as CSV. */
 export function AlarmHistory({ timeZone, places, selectedId, onSelect }: Props) {
   const now = useNow();
-  const [form, setForm] = useState(() => ({ from: isoToSiteLocal(now - 86_400_000, timeZone), to: isoToSiteLocal(now + 60_000, timeZone), tank: '', priority: '', kind: '', q: '' }));
-  const [params, setParams] = useState<HistoryParams | null>(null);
+  const [form, setForm] = useState(() => ({ from: isoToSiteLocal(now - DEFAULT_SPAN_MS, timeZone), to: isoToSiteLocal(now + 60_000, timeZone), tank: '', priority: '', kind: '', q: '' }));
+  // Opens on the last week's alarms, so the tab is never blank.
+  const [params, setParams] = useState<HistoryParams | null>(() => ({ from: new Date(now - DEFAULT_SPAN_MS).toISOString(), to: new Date(now + 60_000).toISOString(), offset: 0 }));
   const [bad, setBad] = useState<string | null>(null);
   const q = useAlarmHistory(params);
 

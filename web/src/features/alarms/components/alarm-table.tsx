@@ -2,7 +2,7 @@ import type { AlarmView } from '@shared/schemas/alarms';
 import { Button } from '../../../components/ui/button';
 import { PriorityPill } from '../../../components/ui/priority-pill';
 import { useNow } from '../../../lib/clock';
-import { formatAge } from '../../../lib/format';
+import { formatAge, formatDateTime } from '../../../lib/format';
 import { AlarmStateLabel } from './alarm-state-label';
 import { isUnacknowledged, valueText } from './alarm-states';
 
@@ -56,7 +56,7 @@ export function AlarmTable({ alarms, selectedId, timeZone, canAck, onSelect, onA
             </td>
             <td className="pr-2 text-right tabular-nums">{valueText(a, a.firstValue, a.limitValue)}</td>
             <td className="pr-2 text-right tabular-nums text-ink-muted">
-              {mode === 'active' ? formatAge((now - since(a)) / 1000).replace(' ago', '') : new Date(a.openedAt).toLocaleString('en-GB', { timeZone })}
+              {mode === 'active' ? formatAge((now - since(a)) / 1000).replace(' ago', '') : formatDateTime(a.openedAt, timeZone)}
             </td>
             {mode === 'active' && (
               <td className="py-1 text-right">

@@ -19,7 +19,7 @@ export function AssaysView({ user, tanks, timeZone }: { user: SessionUser; tanks
   const canWrite = WRITERS.includes(user.role);
 
   return (
-    <div className="mx-auto flex max-w-7xl flex-col gap-4">
+    <div className="mx-auto flex max-w-[100rem] flex-col gap-4">
       <h1 className="text-2xl font-bold">Assays</h1>
       {canWrite && (
         <div className="grid gap-4 xl:grid-cols-2">

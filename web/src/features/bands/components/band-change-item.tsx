@@ -3,7 +3,7 @@ import type { Role, SessionUser } from '@shared/schemas/auth';
 import type { BandChange, BandValues } from '@shared/schemas/bands';
 import { Button } from '../../../components/ui/button';
 import { FormError, TextField } from '../../../components/ui/field';
-import { formatRatio } from '../../../lib/format';
+import { formatDateTime, formatRatio } from '../../../lib/format';
 import { formMessage } from '../../../lib/form';
 import { useDecideBandChange } from '../api/decide-band-change';
 
@@ -14,10 +14,10 @@ const STATUS: Record<BandChange['status'], string> = {
 };
 
 export const bandText = (b: BandValues) => `${formatRatio(b.low)}–${formatRatio(b.high)}${b.target != null ? ` (target ${formatRatio(b.target)})` : ''}`;
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /** One change: old → new, who, when, why, and for a pending one the decisions the viewer may take. */
-export function BandChangeItem({ change, user, onChanged }: { change: BandChange; user: SessionUser; onChanged?: () => void }) {
+export function BandChangeItem({ change, user, timeZone, onChanged }: { change: BandChange; user: SessionUser; timeZone: string; onChanged?: () => void }) {
+  const when = (iso: string) => formatDateTime(iso, timeZone);
   const decide = useDecideBandChange(onChanged);
   const [rejecting, setRejecting] = useState(false);
   const [note, setNote] = useState('');

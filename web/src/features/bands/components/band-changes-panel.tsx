@@ -5,10 +5,10 @@ import { ErrorState, Loading } from '../../../components/ui/page-state';
 import { useBandChanges } from '../api/get-band-changes';
 import { BandChangeItem } from './band-change-item';
 
-type Props = { title: string; filter: Partial<BandChangesQuery>; user: SessionUser; empty: string; onChanged?: () => void };
+type Props = { title: string; filter: Partial<BandChangesQuery>; user: SessionUser; timeZone: string; empty: string; onChanged?: () => void };
 
 /** A list of band changes: the pending ones to decide, or a tank's history (append-only). */
-export function BandChangesPanel({ title, filter, user, empty, onChanged }: Props) {
+export function BandChangesPanel({ title, filter, user, timeZone, empty, onChanged }: Props) {
   const changes = useBandChanges(filter);
   return (
     <Panel title={title}>
@@ -21,7 +21,7 @@ export function BandChangesPanel({ title, filter, user, empty, onChanged }: Prop
       ) : (
         <ul>
           {changes.data.map((c) => (
-            <BandChangeItem key={c.id} change={c} user={user} onChanged={onChanged} />
+            <BandChangeItem key={c.id} change={c} user={user} timeZone={timeZone} onChanged={onChanged} />
           ))}
         </ul>
       )}

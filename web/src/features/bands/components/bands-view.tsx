@@ -14,7 +14,7 @@ const CHANGERS: readonly Role[] = ['metallurgist', 'admin'];
 type Editing = { mode: 'change' | 'copy' | 'history'; row: BandRow } | null;
 
 /** Bands: ratio setpoints per tank, shown also in mV, with change control and the change record. */
-export function BandsView({ user, onBandChanged }: { user: SessionUser; onBandChanged?: () => void }) {
+export function BandsView({ user, timeZone, onBandChanged }: { user: SessionUser; timeZone: string; onBandChanged?: () => void }) {
   const bands = useBands();
   const [editing, setEditing] = useState<Editing>(null);
   if (bands.isPending) return <Loading label="Loading bands…" />;
@@ -26,14 +26,14 @@ export function BandsView({ user, onBandChanged }: { user: SessionUser; onBandCh
   const factorOf = (row: BandRow) => bands.data.approvalFactor[row.siteId] ?? 2;
 
   return (
-    <div className="mx-auto flex max-w-6xl flex-col gap-4">
+    <div className="mx-auto flex max-w-7xl flex-col gap-4">
       <div>
         <h1 className="text-2xl font-bold">Bands</h1>
         <p className="text-sm text-ink-muted">
           Every change needs a reason and is kept in the record. A bound moved by more than the site's factor waits for a second person.
         </p>
       </div>
-      <BandChangesPanel title="Awaiting approval" filter={{ status: 'pending' }} user={user} empty="No band change is waiting." onChanged={onBandChanged} />
+      <BandChangesPanel title="Awaiting approval" filter={{ status: 'pending' }} user={user} timeZone={timeZone} empty="No band change is waiting." onChanged={onBandChanged} />
       {circuits.map(([id, tag]) => {
         const rows = bands.data.tanks.filter((t) => t.circuitId === id);
         const here = editing && editing.row.circuitId === id ? editing : null;
@@ -58,12 +58,13 @@ export function BandsView({ user, onBandChanged }: { user: SessionUser; onBandCh
             )}
             {here?.mode === 'history' && (
               <div className="mt-4">
-                <BandChangesPanel title={`Change record of ${here.row.tankTag}`} filter={{ tankId: here.row.tankId }} user={user} empty="No change recorded yet." />
+                <BandChangesPanel title={`Change record of ${here.row.tankTag}`} filter={{ tankId: here.row.tankId }} user={user} timeZone={timeZone} empty="No change recorded yet." />
               </div>
             )}
           </Panel>
         );
       })}
+      <BandChangesPanel title="Recent changes, all tanks" filter={{ limit: 8 }} user={user} timeZone={timeZone} empty="No band change recorded yet." onChanged={onBandChanged} />
       <CautionNote />
     </div>
   );

@@ -20,7 +20,7 @@ function TankCalibration({ tankId, user, timeZone, onCalibrationChanged }: { tan
   if (overview.isError) return <ErrorState title="Calibration could not be loaded" detail={overview.error.message} onRetry={() => overview.refetch()} />;
   const o = overview.data;
   return (
-    <div className="grid gap-4 xl:grid-cols-[3fr_2fr]">
+    <div className="grid gap-4 xl:grid-cols-2">
       <Panel title={`Fit E°′ for ${o.tankTag} from assays`}>
         {o.probe ? (
           <FitPanel key={tankId} tankId={tankId} timeZone={timeZone} canApply={canWrite} onCalibrationChanged={onCalibrationChanged} />
@@ -49,7 +49,7 @@ export function CalibrationView({ user, tanks, timeZone, onCalibrationChanged }:
   const schedule = useCheckSchedule();
   const overdue = schedule.data?.filter((p) => p.overdue) ?? [];
   return (
-    <div className="mx-auto flex max-w-7xl flex-col gap-4">
+    <div className="mx-auto flex max-w-[100rem] flex-col gap-4">
       <div className="flex flex-wrap items-end justify-between gap-4">
         <h1 className="text-2xl font-bold">Calibration</h1>
         <div className="w-64">

@@ -2,7 +2,7 @@ import { OXIDANTS } from '@shared/redox';
 import type { DoseInputs } from '@shared/schemas/dose';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { useNow } from '../../../lib/clock';
-import { formatAge, formatRatio } from '../../../lib/format';
+import { formatAge, formatDateTime, formatRatio } from '../../../lib/format';
 import type { FieldErrors } from '../../../lib/form';
 
 export type DoseFormText = {
@@ -13,14 +13,14 @@ export type DoseFormText = {
 export function initialDoseForm(inputs: DoseInputs): DoseFormText {
   const r = (v: number) => String(Number(v.toPrecision(3)));
   return {
-    ratioNow: inputs.latest ? r(inputs.latest.ratio) : '', ratioTarget: r(inputs.bandMiddle), volumeM3: String(inputs.volumeM3),
+    ratioNow: inputs.latest ? r(inputs.latest.ratio) : '', ratioTarget: r(inputs.band.target ?? inputs.bandMiddle), volumeM3: String(inputs.volumeM3),
     totalFeGPerL: inputs.latestAssay ? r(inputs.latestAssay.feTotalGPerL) : '', oxidant: 'h2o2', utilisationPct: '100', feedFlowM3PerH: '', feedRatio: '',
   };
 }
 
-type Props = { inputs: DoseInputs; values: DoseFormText; errors: FieldErrors; onChange: (k: keyof DoseFormText, v: string) => void };
+type Props = { inputs: DoseInputs; values: DoseFormText; errors: FieldErrors; timeZone: string; onChange: (k: keyof DoseFormText, v: string) => void };
 
-export function DoseFormFields({ inputs, values, errors, onChange }: Props) {
+export function DoseFormFields({ inputs, values, errors, timeZone, onChange }: Props) {
   const set = (k: keyof DoseFormText) => (e: { target: { value: string } }) => onChange(k, e.target.value);
   const now = useNow();
   const ageS = inputs.latest ? (now - Date.parse(inputs.latest.ts)) / 1000 : null;
@@ -38,7 +38,7 @@ export function DoseFormFields({ inputs, values, errors, onChange }: Props) {
       <TextField label="Tank volume" inputMode="decimal" unit="m³" value={values.volumeM3} onChange={set('volumeM3')} error={errors.volumeM3} />
       <TextField
         label="Total iron" inputMode="decimal" unit="g/L" value={values.totalFeGPerL} onChange={set('totalFeGPerL')} error={errors.totalFeGPerL}
-        hint={inputs.latestAssay ? `Latest assay, ${new Date(inputs.latestAssay.sampledAt).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}` : 'No assay stored: enter it'}
+        hint={inputs.latestAssay ? `Latest assay, sampled ${formatDateTime(inputs.latestAssay.sampledAt, timeZone)}` : 'No assay stored: enter it'}
       />
       <SelectField label="Oxidant" value={values.oxidant} onChange={set('oxidant')} options={OXIDANTS.map((o) => ({ value: o.id, label: o.label }))} error={errors.oxidant} />
       <TextField

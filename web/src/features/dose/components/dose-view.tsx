@@ -15,7 +15,7 @@ import { OxidantHazards } from './oxidant-hazards';
 export type DoseTank = { id: number; tag: string; name: string };
 const num = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
 
-function Advisor({ tankId }: { tankId: number }) {
+function Advisor({ tankId, timeZone }: { tankId: number; timeZone: string }) {
   const inputs = useDoseInputs(tankId);
   const [values, setValues] = useState<DoseFormText | null>(null);
   if (inputs.isPending) return <Loading label="Loading the tank…" />;
@@ -32,7 +32,7 @@ function Advisor({ tankId }: { tankId: number }) {
   return (
     <div className="grid gap-4 xl:grid-cols-2">
       <Panel title={`Inputs for ${inputs.data.tankTag}`}>
-        <DoseFormFields inputs={inputs.data} values={v} errors={errors} onChange={(k, val) => setValues({ ...v, [k]: val })} />
+        <DoseFormFields inputs={inputs.data} values={v} errors={errors} timeZone={timeZone} onChange={(k, val) => setValues({ ...v, [k]: val })} />
       </Panel>
       <Panel title="Advice">
         {!advice ? (
@@ -62,7 +62,7 @@ function Advisor({ tankId }: { tankId: number }) {
 }
 
 /** Dose advisor: oxidant to bring a tank into its band. Advisory only — it sends no command to the plant. */
-export function DoseView({ tanks }: { tanks: DoseTank[] }) {
+export function DoseView({ tanks, timeZone }: { tanks: DoseTank[]; timeZone: string }) {
   const [tankId, setTankId] = useState<number | null>(tanks[0]?.id ?? null);
   return (
     <div className="mx-auto flex max-w-7xl flex-col gap-4">
@@ -75,7 +75,7 @@ export function DoseView({ tanks }: { tanks: DoseTank[] }) {
           <SelectField label="Tank" value={tankId == null ? '' : String(tankId)} onChange={(e) => setTankId(Number(e.target.value))} options={tanks.map((t) => ({ value: String(t.id), label: `${t.tag} · ${t.name}` }))} />
         </div>
       </div>
-      {tankId != null && <Advisor key={tankId} tankId={tankId} />}
+      {tankId != null && <Advisor key={tankId} tankId={tankId} timeZone={timeZone} />}
       <CautionNote />
     </div>
   );

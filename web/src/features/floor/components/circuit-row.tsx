@@ -9,11 +9,13 @@ export function CircuitRow({
   statuses,
   columns,
   siteName,
+  nowMs,
 }: {
   circuit: Circuit;
   statuses: TankStatus[];
   columns: number;
   siteName?: string;
+  nowMs: number;
 }) {
   return (
     <section
@@ -29,7 +31,7 @@ export function CircuitRow({
               ›
             </span>
           )}
-          <TankTile tank={tank} status={statuses[i]} />
+          <TankTile tank={tank} status={statuses[i]} nowMs={nowMs} />
         </div>
       ))}
     </section>

@@ -45,6 +45,7 @@ export function FloorView() {
             circuit={circuit}
             columns={columns}
             siteName={multiSite ? site.name : undefined}
+            nowMs={now}
             statuses={circuit.tanks.map((t) => tankStatus(t, now, t.probe ? freshness[t.probe.id] : undefined))}
           />
         ))}

@@ -9,6 +9,7 @@ import { PriorityPill } from '../../../components/ui/priority-pill';
 import { useTankAlarm, type TankAlarmBadge } from '../../../lib/tank-alarms';
 import { formatAge, formatEhV, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
 import type { TankStatus } from './tank-status';
+import { TileSparkline } from './tile-sparkline';
 
 // Type scales with the tile (container units), so one layout serves a 1920×1080 wall and a 1366×768 laptop.
 const TAG = 'text-[length:clamp(1.1rem,min(15cqw,11cqh),3.25rem)]';
@@ -47,7 +48,7 @@ function Row({ label, children }: { label: string; children: ReactNode }) {
   );
 }
 
-export function TankTile({ tank, status }: { tank: TankSummary; status: TankStatus }) {
+export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: TankStatus; nowMs: number }) {
   const latest = tank.latest;
   const alarm = useTankAlarm(tank.id);
   const out = status.kind === 'live' && status.position !== 'in';
@@ -103,6 +104,9 @@ export function TankTile({ tank, status }: { tank: TankSummary; status: TankStat
               )}
             </div>
             <BandBar band={tank.band} ratio={latest?.ratio ?? null} factor={status.factor} attention={out} muted={stale} />
+            <div className="min-h-0 flex-1">
+              <TileSparkline tankId={tank.id} band={tank.band} latest={latest} nowMs={nowMs} muted={stale} />
+            </div>
           </>
         )}
 

@@ -19,7 +19,7 @@ export function CallRoster({ role, timeZone }: { role: Role; timeZone: string })
   const shifts = useShifts(range.from, range.to);
   const canManage = MANAGERS.includes(role);
   return (
-    <div className="mx-auto flex max-w-6xl flex-col gap-4">
+    <div className="mx-auto flex max-w-7xl flex-col gap-4">
       <h1 className="text-2xl font-bold">Call roster</h1>
       <Panel><OnCallNow /></Panel>
       <div className="grid gap-4 lg:grid-cols-[2fr_1fr]">

@@ -17,8 +17,8 @@ export function ShiftTable({ shifts, timeZone, canManage, now }: { shifts: Shift
           const current = Date.parse(s.startsAt) <= now && now < Date.parse(s.endsAt);
           return (
             <tr key={s.id} className={`border-b border-line ${current ? 'bg-panel-2 font-semibold' : ''}`}>
-              <td className="whitespace-nowrap py-1.5 tabular-nums">{current && <span className="mr-1" aria-label="now">▶</span>}{formatDateTime(s.startsAt, timeZone)}</td>
-              <td className="whitespace-nowrap tabular-nums">{formatDateTime(s.endsAt, timeZone)}</td>
+              <td className="whitespace-nowrap py-1.5 pr-3 tabular-nums">{current && <span className="mr-1" aria-label="now">▶</span>}{formatDateTime(s.startsAt, timeZone)}</td>
+              <td className="whitespace-nowrap pr-3 tabular-nums">{formatDateTime(s.endsAt, timeZone)}</td>
               <td>{ON_CALL_LABEL[s.roleOnCall]}</td>
               <td>{s.personName}</td>
               <td className="text-ink-muted">{s.email}</td>

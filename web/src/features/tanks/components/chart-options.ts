@@ -1,8 +1,9 @@
 import uPlot from 'uplot';
 import type { Band } from '@shared/schemas/plant';
+import type { AssayPoint } from '../api/get-tank-assays';
 import { formatMv, formatRatio, formatTempC } from '../../../lib/format';
 
-export type ChartColours = { line: string; muted: string; grid: string; band: string; uncertainty: string; bucket: string; edge: string };
+export type ChartColours = { line: string; muted: string; grid: string; band: string; uncertainty: string; bucket: string; edge: string; assayFill: string };
 
 /**
  * Canvas cannot read CSS variables itself: resolve them once per theme.
@@ -19,6 +20,7 @@ export function readChartColours(_theme: string): ChartColours {
     uncertainty: v('--fs-chart-uncertainty'),
     bucket: v('--fs-chart-grid'),
     edge: v('--fs-ink-muted'),
+    assayFill: v('--fs-panel'),
   };
 }
 
@@ -120,13 +122,43 @@ function bandPlugin(band: Band, colours: ChartColours): uPlot.Plugin {
   };
 }
 
-/** Ratio on a log axis, band shaded, uncertainty (ratio ×/÷ factor) and bucket range as fills. */
-export function ratioChartOptions(c: Common, band: Band): uPlot.Options {
+/** Lab assays as hollow diamonds at their sampling time and lab ratio (a shape, so not read as an alarm colour). */
+function assayPlugin(assays: AssayPoint[], colours: ChartColours): uPlot.Plugin {
+  return {
+    hooks: {
+      draw: (u) => {
+        const { ctx, bbox } = u;
+        const r = 5 * uPlot.pxRatio;
+        ctx.save();
+        ctx.lineWidth = 1.75 * uPlot.pxRatio;
+        ctx.strokeStyle = colours.line;
+        ctx.fillStyle = colours.assayFill;
+        for (const a of assays) {
+          const x = u.valToPos(a.t, 'x', true);
+          const y = u.valToPos(a.labRatio, 'y', true);
+          if (x < bbox.left || x > bbox.left + bbox.width || y < bbox.top || y > bbox.top + bbox.height) continue;
+          ctx.beginPath();
+          ctx.moveTo(x, y - r);
+          ctx.lineTo(x + r, y);
+          ctx.lineTo(x, y + r);
+          ctx.lineTo(x - r, y);
+          ctx.closePath();
+          ctx.fill();
+          ctx.stroke();
+        }
+        ctx.restore();
+      },
+    },
+  };
+}
+
+/** Ratio on a log axis, band shaded, uncertainty (ratio ×/÷ factor) and bucket range as fills, lab assays as diamonds. */
+export function ratioChartOptions(c: Common, band: Band, assays: AssayPoint[] = []): uPlot.Options {
   const base = common(c, 'Fe³⁺/Fe²⁺ (log)', formatRatio);
   const hidden = { stroke: 'transparent', points: { show: false } };
   return {
     ...base,
-    plugins: [bandPlugin(band, c.colours)],
+    plugins: [bandPlugin(band, c.colours), assayPlugin(assays, c.colours)],
     scales: {
       y: {
         distr: 3,

@@ -1,13 +1,16 @@
 import type { ReactNode } from 'react';
+import { Link } from 'react-router-dom';
 import { referenceById } from '@shared/redox';
 import type { TankSummary } from '@shared/schemas/plant';
 import { BandBar } from '../../../components/ui/band-bar';
 import { BandState } from '../../../components/ui/band-state';
 import { FreshnessLabel } from '../../../components/ui/freshness-label';
+import { PriorityPill } from '../../../components/ui/priority-pill';
 import { Quantity } from '../../../components/ui/quantity';
 import { formatDate, formatDateTime, formatEhV, formatFixed, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
 import type { Freshness } from '../../../lib/freshness';
 import { bandAsMv, bandPosition, uncertaintyFactor } from '../../../lib/redox-view';
+import { useTankAlarm } from '../../../lib/tank-alarms';
 
 export const MIXED_POTENTIAL_CAVEAT =
   'ORP in real slurries is a mixed potential; the ratio is an estimate validated by lab assays.';
@@ -38,8 +41,9 @@ function publishedReference(id: string) {
   }
 }
 
-export function TankFacts({ tank, timeZone, freshness }: { tank: TankSummary; timeZone: string; freshness: Freshness }) {
+export function TankFacts({ tank, timeZone, freshness, alarmsHref }: { tank: TankSummary; timeZone: string; freshness: Freshness; alarmsHref?: string }) {
   const { probe, calibration, latest, band } = tank;
+  const alarm = useTankAlarm(tank.id);
   const tempC = latest?.tempC;
   const bandMv = bandAsMv(band, probe, calibration, tempC);
   const factor = uncertaintyFactor(probe, tempC);
@@ -157,9 +161,24 @@ export function TankFacts({ tank, timeZone, freshness }: { tank: TankSummary; ti
       </Section>
 
       <Section title="Active alarms">
-        <Fact label="Alarms">
-          <span className="text-ink-muted">Listed here once the Alarm desk arrives.</span>
+        <Fact label={alarm ? (alarm.count > 1 ? `Worst of ${alarm.count}` : 'Open') : 'Alarms'}>
+          {alarm ? (
+            <span className="inline-flex items-center gap-2" data-testid="tank-alarm">
+              <PriorityPill priority={alarm.priority} pulse={alarm.unacknowledged > 0} />
+              <span>{alarm.label}</span>
+              {alarm.unacknowledged > 0 && <span className="font-semibold">not acknowledged</span>}
+            </span>
+          ) : (
+            <span className="text-ink-muted">None active</span>
+          )}
         </Fact>
+        {alarmsHref && (
+          <Fact label="">
+            <Link to={alarmsHref} className="text-info-ink underline">
+              {alarm ? 'Open on the Alarm desk' : 'Alarm history on the Alarm desk'}
+            </Link>
+          </Fact>
+        )}
       </Section>
 
       <p className="border-t border-line pt-3 text-sm text-ink-muted">{MIXED_POTENTIAL_CAVEAT}</p>

@@ -5,6 +5,7 @@ import { ErrorState, Loading } from '../../../components/ui/page-state';
 import { useNow } from '../../../lib/clock';
 import { freshnessOf } from '../../../lib/freshness';
 import { useTank } from '../api/get-tank';
+import { useTankAssays } from '../api/get-tank-assays';
 import { rangeKey, useTrend } from '../api/get-trend';
 import { useTankLive } from '../hooks/use-tank-live';
 import { useTrendRange } from '../hooks/use-trend-range';
@@ -13,10 +14,11 @@ import { TankFacts } from './tank-facts';
 import { TrendCharts } from './trend-charts';
 
 /** Trends on the left two thirds, facts on the right third. */
-export function TankView({ tankId }: { tankId: number }) {
+export function TankView({ tankId, alarmsHref }: { tankId: number; alarmsHref?: string }) {
   const detail = useTank(tankId);
   const [range, setRange] = useTrendRange();
   const trend = useTrend(tankId, range);
+  const assays = useTankAssays(tankId, range);
   const serverFreshness = useTankLive(tankId);
   const now = useNow();
 
@@ -72,13 +74,14 @@ export function TankView({ tankId }: { tankId: number }) {
             band={tank.band}
             probe={tank.probe}
             timeZone={site.timeZone}
+            assays={assays.data}
           />
         ) : (
           <Loading label="Loading the trend…" />
         )}
       </div>
       <aside aria-label="Facts" className="min-h-0 overflow-auto rounded-lg border border-line bg-panel p-4">
-        <TankFacts tank={tank} timeZone={site.timeZone} freshness={freshness} />
+        <TankFacts tank={tank} timeZone={site.timeZone} freshness={freshness} alarmsHref={alarmsHref} />
       </aside>
     </div>
   );

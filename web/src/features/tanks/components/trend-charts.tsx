@@ -5,16 +5,19 @@ import 'uplot/dist/uPlot.min.css';
 import type { Band, ProbeInfo, TrendResponse } from '@shared/schemas/plant';
 import { uncertaintyFactor } from '../../../lib/redox-view';
 import { useTheme } from '../../../lib/theme';
+import type { AssayPoint } from '../api/get-tank-assays';
 import { useElementSize } from '../hooks/use-element-size';
 import { orpChartOptions, ratioChartOptions, readChartColours, tempChartOptions, type ChartGroup } from './chart-options';
 import { TrendReadout } from './trend-readout';
 
-type Props = { tankId: number; trend: TrendResponse; band: Band; probe: ProbeInfo | null; timeZone: string };
+type Props = { tankId: number; trend: TrendResponse; band: Band; probe: ProbeInfo | null; timeZone: string; assays?: AssayPoint[] };
+
+const NO_ASSAYS: AssayPoint[] = [];
 
 const GAP = 8;
 
 /** Ratio, ORP and temperature over the same time axis; drag to zoom, double-click to reset. */
-export function TrendCharts({ tankId, trend, band, probe, timeZone }: Props) {
+export function TrendCharts({ tankId, trend, band, probe, timeZone, assays = NO_ASSAYS }: Props) {
   const boxRef = useRef<HTMLDivElement>(null);
   const { width, height } = useElementSize(boxRef);
   const theme = useTheme();
@@ -38,7 +41,7 @@ export function TrendCharts({ tankId, trend, band, probe, timeZone }: Props) {
     }),
     [colours, timeZone, tankId, group],
   );
-  const ratioOpts = useMemo(() => ratioChartOptions(common, band), [common, band]);
+  const ratioOpts = useMemo(() => ratioChartOptions(common, band, assays), [common, band, assays]);
   const orpOpts = useMemo(() => orpChartOptions(common), [common]);
   const tempOpts = useMemo(() => tempChartOptions(common), [common]);
 
@@ -63,7 +66,7 @@ export function TrendCharts({ tankId, trend, band, probe, timeZone }: Props) {
 
   return (
     <div className="flex min-h-0 flex-1 flex-col gap-2">
-      <TrendReadout trend={trend} factors={factors} idx={cursorIdx} timeZone={timeZone} zoomed={zoomed} />
+      <TrendReadout trend={trend} factors={factors} idx={cursorIdx} timeZone={timeZone} zoomed={zoomed} assays={assays.length} />
       <div ref={boxRef} className="relative min-h-[26rem] flex-1" data-testid="trend-charts">
         {empty && (
           <div className="absolute inset-0 z-10 flex items-center justify-center text-ink-muted">No readings in this range.</div>

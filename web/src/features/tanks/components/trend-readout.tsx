@@ -15,12 +15,15 @@ export function TrendReadout({
   idx,
   timeZone,
   zoomed,
+  assays = 0,
 }: {
   trend: TrendResponse;
   factors: Array<number | null>;
   idx: number | null;
   timeZone: string;
   zoomed: boolean;
+  /** How many lab assays are drawn on the ratio chart. */
+  assays?: number;
 }) {
   const i = idx ?? trend.t.length - 1;
   const has = i >= 0 && i < trend.t.length;
@@ -45,7 +48,7 @@ export function TrendReadout({
         <span className="text-ink-muted">No values</span>
       )}
       <span className="ml-auto text-ink-muted">
-        Shown: {RESOLUTION[trend.resolution]}. Band: light fill between dashed lines; darker fill: probe tolerance. {zoomed ? 'Double-click to reset zoom.' : 'Drag to zoom.'}
+        Shown: {RESOLUTION[trend.resolution]}. Band: light fill between dashed lines; darker fill: probe tolerance.{assays > 0 ? ` ◇ lab assay (${assays}).` : ''} {zoomed ? 'Double-click to reset zoom.' : 'Drag to zoom.'}
       </span>
     </div>
   );
