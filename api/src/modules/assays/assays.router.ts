@@ -19,6 +19,8 @@ const oneFile: RequestHandler = (req, res, next) => {
       return next(new AppError(413, 'too-large', `The file is larger than ${ASSAY_CSV_MAX_BYTES / 1024 / 1024} MB: split it into smaller files`));
     }
     if (code?.startsWith('LIMIT_')) return next(AppError.badRequest(`Upload refused (${code}): send one CSV file in the field 'file'`));
+    // busboy's parse errors (malformed multipart) carry no code: the client sent a broken body.
+    if (!code) return next(AppError.badRequest(`The upload could not be read: ${(err as Error).message}`));
     next(err);
   });
 };

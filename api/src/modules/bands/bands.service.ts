@@ -30,7 +30,7 @@ async function requestOne(
   const pending = await repo.pendingIdForTank(tankId, transaction);
   if (pending) throw AppError.conflict(`Tank ${tankId} has a band change awaiting approval (#${pending}): decide or withdraw it first`);
   if (sameBand(tank.band, next)) return null;
-  const { bandApprovalFactor } = await settingsRepository.forTank(tankId);
+  const { bandApprovalFactor } = await settingsRepository.forTank(tankId, transaction);
   const needsApproval = isLargeBandChange(tank.band, next, bandApprovalFactor);
   const id = await repo.insert({ tankId, old: tank.band, next, reason, userId: actor.id, needsApproval, copiedFromTankId }, transaction);
   if (!needsApproval) await repo.setTankBand(tankId, next, transaction);

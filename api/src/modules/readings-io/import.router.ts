@@ -28,6 +28,8 @@ function uploadTo(dir: string): RequestHandler {
       return next(new AppError(tooBig ? 413 : 400, tooBig ? 'too-large' : 'bad-upload',
         tooBig ? `The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB` : `Upload refused: ${err.message}`));
     }
+    // busboy's parse errors (malformed multipart) carry no code: the client sent a broken body.
+    if (err && !(err as { code?: string }).code) return next(AppError.badRequest(`The upload could not be read: ${(err as Error).message}`));
     next(err);
   });
 }

@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import {
   SITE_SETTING_KEYS, SITE_SETTINGS, defaultSiteSettings, type SiteSettingKey, type SiteSettings, type SiteSettingsResponse,
   type UpdateSettingInput,
@@ -23,18 +23,19 @@ function merge(rows: SiteSetting[]): SiteSettings {
 }
 
 export const settingsRepository = {
-  async forSite(siteId: number): Promise<SiteSettings> {
-    return merge(await SiteSetting.findAll({ where: { siteId } }));
+  /** Pass the caller's transaction when inside one: a second pool connection per request deadlocks under load. */
+  async forSite(siteId: number, transaction?: Transaction): Promise<SiteSettings> {
+    return merge(await SiteSetting.findAll({ where: { siteId }, transaction }));
   },
 
   /** Settings of the site a tank belongs to; 404 when the tank does not exist. */
-  async forTank(tankId: number): Promise<SiteSettings & { siteId: number }> {
+  async forTank(tankId: number, transaction?: Transaction): Promise<SiteSettings & { siteId: number }> {
     const rows = await Site.sequelize!.query<{ siteId: number }>(
       'SELECT c.site_id AS siteId FROM tanks t JOIN circuits c ON c.id = t.circuit_id WHERE t.id = :tankId',
-      { replacements: { tankId }, type: QueryTypes.SELECT },
+      { replacements: { tankId }, type: QueryTypes.SELECT, transaction },
     );
     if (!rows[0]) throw AppError.notFound('Tank');
-    return { ...(await this.forSite(rows[0].siteId)), siteId: rows[0].siteId };
+    return { ...(await this.forSite(rows[0].siteId, transaction)), siteId: rows[0].siteId };
   },
 
   async all(): Promise<SiteSettingsResponse> {
