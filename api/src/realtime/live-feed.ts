@@ -9,6 +9,7 @@ type ProbeMeta = { probeId: number; tankId: number; siteTag: string; intervalS: 
  */
 export class LiveFeed {
   private pending = new Map<number, TankLive>();
+  private lastSent = new Map<number, number>();
   private lastSeen = new Map<number, number>();
   private stale = new Map<number, boolean>();
   private probes = new Map<number, ProbeMeta>();
@@ -26,15 +27,21 @@ export class LiveFeed {
     }
   }
 
-  /** Latest value per tank since the last call, grouped by site tag. */
-  drain(): Map<string, TankLive[]> {
+  /**
+   * Latest value per tank, grouped by site tag, for tanks not sent within the last
+   * `minGapMs`: a leading-edge throttle, so a tank updates at most once per second yet a
+   * reading after a quiet spell goes out on the next tick instead of waiting a full second.
+   */
+  drain(nowMs = Date.now(), minGapMs = 1000): Map<string, TankLive[]> {
     const bySite = new Map<string, TankLive[]>();
-    for (const r of this.pending.values()) {
+    for (const [tankId, r] of this.pending) {
+      if (nowMs - (this.lastSent.get(tankId) ?? 0) < minGapMs) continue;
+      this.pending.delete(tankId);
       const site = this.probes.get(r.probeId)?.siteTag;
       if (!site) continue;
+      this.lastSent.set(tankId, nowMs);
       bySite.set(site, [...(bySite.get(site) ?? []), r]);
     }
-    this.pending.clear();
     return bySite;
   }
 

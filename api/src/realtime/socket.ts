@@ -66,12 +66,12 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
   const probeTimer = setInterval(refreshProbes, 60_000);
   bus?.on('latest', (readings) => feed.push(readings));
   const flushTimer = setInterval(() => {
-    for (const [site, readings] of feed.drain()) live.to(`site:${site}`).emit('tank:latest', readings);
+    for (const [site, readings] of feed.drain(Date.now())) live.to(`site:${site}`).emit('tank:latest', readings);
     for (const f of feed.freshnessChanges(Date.now())) {
       const { siteTag, ...payload } = f;
       live.to(`site:${siteTag}`).emit('probe:freshness', payload);
     }
-  }, 1000);
+  }, 100);
 
   // Through the adapter, so the user's sockets on every node are told (the revocation happened on this one).
   const onRevoked = (userId: number) => {

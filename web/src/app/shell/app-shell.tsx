@@ -34,7 +34,7 @@ export function AppShell() {
       </a>
       <Header user={user} />
       <NewAlarmBanner deskPath={SCREENS.alarms.path} />
-      <main id="main" className="min-h-0 flex-1 overflow-auto p-3">
+      <main id="main" className="relative min-h-0 flex-1 overflow-auto p-3">
         <TankAlarmsProvider value={tankAlarms}>
           <Outlet />
         </TankAlarmsProvider>
