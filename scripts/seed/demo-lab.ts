@@ -14,7 +14,7 @@ import { seededRng } from './seeded-random.ts';
 
 export const ASSAY_TANKS = ['A1', 'A3', 'A6', 'B1', 'B2', 'B4'];
 const TOTAL_FE_G_PER_L: Record<string, number> = { A: 9.6, B: 23.5 };
-const METHOD = 'Fe²⁺ dichromate titration (DPAS); total Fe ICP-OES';
+const METHOD = 'Dichromate titration / ICP-OES';
 const ANALYSTS = ['R. Abernethy', 'T. Nakamura-Price', 'L. Osei'];
 /** Results come back this long after sampling. */
 const TURNAROUND_MS = 3 * HOUR_MS;

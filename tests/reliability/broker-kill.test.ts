@@ -37,7 +37,7 @@ const idsSql = () => rig.probes.map((p) => p.id).join(',');
 const storedCount = async () => Number((await rig.pool.query(`SELECT COUNT(*) AS n FROM readings WHERE probe_id IN (${idsSql()})`))[0].n);
 
 describe('broker kill -9 with level persistence (G4)', () => {
-  it('when the broker is killed mid-stream and restarted, then sessions survive and, with the device re-sending its last 5 s, nothing is lost or duplicated', async () => {
+  it('when the broker is killed mid-stream and restarted, then sessions survive and, with the device re-sending its last 15 s, nothing is lost or duplicated', async () => {
     const device = await rig.device('relia-dev-brokerkill', { clean: false });
     const stream = rig.stream();
     const kills = LONG ? 5 : 1;
@@ -45,7 +45,7 @@ describe('broker kill -9 with level persistence (G4)', () => {
     const resumeMs: number[] = [];
     let done = 0;
     const run = await drive(device, stream, {
-      readingsPerS: 2_000, batch: 10, durationMs, replayMs: 5_000,
+      readingsPerS: 2_000, batch: 10, durationMs, replayMs: 15_000,
       during: async (elapsed) => {
         if (done >= kills || elapsed < ((done + 0.4) * durationMs) / kills) return;
         done += 1;

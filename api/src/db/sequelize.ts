@@ -20,7 +20,7 @@ export function createSequelize(databaseUrl: string, poolMax = 10): Sequelize {
       checkNumberRange: true,
       connectTimeout: 5000,
     },
-    pool: { max: poolMax, min: 0, idle: 10_000, acquire: 30_000 },
+    pool: { max: poolMax, min: 0, idle: 10_000, acquire: 60_000 },
     define: { underscored: true },
   });
 }

@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { UniqueConstraintError, ForeignKeyConstraintError } from 'sequelize';
+import { ConnectionAcquireTimeoutError, ForeignKeyConstraintError, UniqueConstraintError } from 'sequelize';
 import { AppError } from '../lib/app-error.ts';
 import { logger } from '../lib/logger.ts';
 
@@ -29,6 +29,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err instanceof ForeignKeyConstraintError) {
     return send(res, { type: 'about:blank#conflict', title: 'Conflict', status: 409, detail: 'Refers to a record that does not exist or is still in use' });
+  }
+  if (err instanceof ConnectionAcquireTimeoutError) {
+    res.set('Retry-After', '5');
+    return send(res, { type: 'about:blank#busy', title: 'Busy', status: 503, detail: 'The server is busy; try again in a few seconds' });
   }
   // body-parser and multer errors carry a status (413, 400) and a safe message.
   const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;

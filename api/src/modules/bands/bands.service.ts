@@ -5,6 +5,7 @@ import {
 } from '../../../../shared/schemas/bands.ts';
 import type { SessionUser } from '../../../../shared/schemas/auth.ts';
 import { Tank } from '../../db/models.ts';
+import { retryTransaction } from '../../lib/retry-transaction.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
 import type { Bus } from '../../realtime/bus.ts';
@@ -65,7 +66,7 @@ export const bandsService = {
 
   async change(tankId: number, input: BandChangeInput, actor: Actor, bus?: Bus): Promise<BandChange> {
     const next = { low: input.low, high: input.high, target: input.target };
-    const done = await Tank.sequelize!.transaction((tx) => requestOne(tankId, next, input.reason, actor, tx));
+    const done = await retryTransaction(Tank.sequelize!, (tx) => requestOne(tankId, next, input.reason, actor, tx));
     if (!done) throw AppError.badRequest('The band is already set to these values');
     if (done.applied) await nudge(bus);
     return (await repo.get(done.id))!;

@@ -7,8 +7,8 @@ const H = 60;
 const GAP_S = 180;
 
 /**
- * The last hour of the ratio on the same logarithmic scale as the band bar above it, the band
- * shaded behind. Neutral grey: the tile's frame and words carry any abnormal state.
+ * The last hour of the ratio on a logarithmic scale, the band shaded behind it, so where the
+ * tank has been inside its band shows at a glance. Neutral grey: the tile's frame and words carry any abnormal state.
  */
 export function TileSparkline({ tankId, band, latest, nowMs, muted }: {
   tankId: number; band: Band; latest: { ts: string; ratio: number } | null; nowMs: number; muted: boolean;
@@ -24,7 +24,8 @@ export function TileSparkline({ tankId, band, latest, nowMs, muted }: {
 
   const lo = Math.log10(band.low);
   const hi = Math.log10(band.high);
-  const pad = Math.max(0.3, (hi - lo) * 0.6);
+  // A little room around the band, so a tank leaving it shows at once; wider when the values go further.
+  const pad = Math.max(0.08, (hi - lo) * 0.15);
   const d0 = Math.min(lo - pad, ...pts.map((p) => p[1] - 0.05));
   const d1 = Math.max(hi + pad, ...pts.map((p) => p[1] + 0.05));
   const x = (s: number) => ((s - fromS) / (RECENT_MS / 1000)) * W;
