@@ -37,15 +37,17 @@ export function TileSparkline({ tankId, band, latest, nowMs, muted }: {
   });
 
   return (
-    <div className="relative h-full min-h-6" data-testid="tile-sparkline">
-      <svg viewBox={`0 0 ${W} ${H}`} preserveAspectRatio="none" aria-hidden="true" className="absolute inset-0 h-full w-full">
-        <rect x={0} width={W} y={y(hi)} height={y(lo) - y(hi)} fill="var(--fs-chart-band)" />
-        {[lo, hi].map((v) => (
-          <line key={v} x1={0} x2={W} y1={y(v)} y2={y(v)} stroke="var(--fs-line-strong)" strokeWidth={1} strokeDasharray="3 3" vectorEffect="non-scaling-stroke" />
-        ))}
-        <path d={path} fill="none" stroke={muted ? 'var(--fs-offline-ink)' : 'var(--fs-chart-line)'} strokeWidth={1.5} strokeLinejoin="round" vectorEffect="non-scaling-stroke" />
-      </svg>
-      <span className="absolute top-0 left-0 text-[length:clamp(0.65rem,5cqw,0.85rem)] leading-none text-ink-muted">last hour</span>
+    <div className="flex h-full min-h-6 flex-col gap-0.5" data-testid="tile-sparkline">
+      <span className="text-[length:clamp(0.65rem,5cqw,0.85rem)] leading-none text-ink-muted">last hour</span>
+      <div className="relative min-h-0 flex-1">
+        <svg viewBox={`0 0 ${W} ${H}`} preserveAspectRatio="none" aria-hidden="true" className="absolute inset-0 h-full w-full">
+          <rect x={0} width={W} y={y(hi)} height={y(lo) - y(hi)} fill="var(--fs-chart-band)" />
+          {[lo, hi].map((v) => (
+            <line key={v} x1={0} x2={W} y1={y(v)} y2={y(v)} stroke="var(--fs-line-strong)" strokeWidth={1} strokeDasharray="3 3" vectorEffect="non-scaling-stroke" />
+          ))}
+          <path d={path} fill="none" stroke={muted ? 'var(--fs-offline-ink)' : 'var(--fs-chart-line)'} strokeWidth={1.5} strokeLinejoin="round" vectorEffect="non-scaling-stroke" />
+        </svg>
+      </div>
     </div>
   );
 }
