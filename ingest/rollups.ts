@@ -1,4 +1,4 @@
-import { toSqlTs, type PoolConnection } from './db.ts';
+import { placeholders, toSqlTs, type PoolConnection } from './db.ts';
 
 const MINUTE_MS = 60_000;
 const HOUR_MS = 3_600_000;
@@ -74,5 +74,76 @@ export async function recomputeRollups(conn: PoolConnection, points: { probeId: 
        ON DUPLICATE KEY UPDATE ${UPDATE_ALL}`,
       w.params,
     );
+  }
+}
+
+/** What addToRollups needs of a newly inserted reading. */
+export type RollupPoint = { probeId: number; tsMs: number; orpMv: number; ehV: number; tempC: number; ratio: number };
+
+type BucketSum = {
+  probeId: number; bucketMs: number; n: number;
+  orpMin: number; orpMax: number; orpSum: number; ehMin: number; ehMax: number; ehSum: number;
+  tempMin: number; tempMax: number; tempSum: number; logSum: number; logMin: number; logMax: number;
+};
+
+/** Aggregates of the given points per (probe, bucket), in memory. Exported for tests. */
+export function aggregateBuckets(points: RollupPoint[], bucketMs: number): BucketSum[] {
+  const out = new Map<string, BucketSum>();
+  for (const p of points) {
+    const start = Math.floor(p.tsMs / bucketMs) * bucketMs;
+    const key = `${p.probeId}|${start}`;
+    const lg = Math.log10(p.ratio);
+    const a = out.get(key);
+    if (!a) {
+      out.set(key, {
+        probeId: p.probeId, bucketMs: start, n: 1,
+        orpMin: p.orpMv, orpMax: p.orpMv, orpSum: p.orpMv, ehMin: p.ehV, ehMax: p.ehV, ehSum: p.ehV,
+        tempMin: p.tempC, tempMax: p.tempC, tempSum: p.tempC, logSum: lg, logMin: lg, logMax: lg,
+      });
+      continue;
+    }
+    a.n += 1;
+    a.orpMin = Math.min(a.orpMin, p.orpMv); a.orpMax = Math.max(a.orpMax, p.orpMv); a.orpSum += p.orpMv;
+    a.ehMin = Math.min(a.ehMin, p.ehV); a.ehMax = Math.max(a.ehMax, p.ehV); a.ehSum += p.ehV;
+    a.tempMin = Math.min(a.tempMin, p.tempC); a.tempMax = Math.max(a.tempMax, p.tempC); a.tempSum += p.tempC;
+    a.logSum += lg; a.logMin = Math.min(a.logMin, lg); a.logMax = Math.max(a.logMax, lg);
+  }
+  return [...out.values()];
+}
+
+/*
+ * Merge of a stored bucket with the new rows' partial aggregate. MariaDB evaluates the
+ * assignments left to right and later ones see earlier results, so the means (weighted by the
+ * old n) come first and n is updated last.
+ */
+const mean = (c: string) => `${c} = (${c} * n + VALUES(${c}) * VALUES(n)) / (n + VALUES(n))`;
+const MERGE = [
+  'orp_min = LEAST(orp_min, VALUES(orp_min))', 'orp_max = GREATEST(orp_max, VALUES(orp_max))', mean('orp_mean'),
+  'eh_min = LEAST(eh_min, VALUES(eh_min))', 'eh_max = GREATEST(eh_max, VALUES(eh_max))', mean('eh_mean'),
+  'temp_min = LEAST(temp_min, VALUES(temp_min))', 'temp_max = GREATEST(temp_max, VALUES(temp_max))', mean('temp_mean'),
+  mean('log_ratio_mean'), 'log_ratio_min = LEAST(log_ratio_min, VALUES(log_ratio_min))', 'log_ratio_max = GREATEST(log_ratio_max, VALUES(log_ratio_max))',
+  'n = n + VALUES(n)',
+].join(', ');
+
+/**
+ * Adds newly inserted readings to their 1 m and 1 h rollups without reading raw rows back:
+ * each touched bucket gets one upsert that merges count, min, max and mean. Exact for late
+ * and backfilled data too, because storeReadings only passes rows it has just inserted (keys
+ * proven absent under lock) and runs this in the same transaction. Values that change stored
+ * readings (a recalibration) use recomputeRollups instead.
+ */
+export async function addToRollups(conn: PoolConnection, points: RollupPoint[]): Promise<void> {
+  if (points.length === 0) return;
+  const CHUNK = 1000;
+  for (const [table, bucketMs] of [['rollups_1m', MINUTE_MS], ['rollups_1h', HOUR_MS]] as const) {
+    const parts = aggregateBuckets(points, bucketMs);
+    for (let i = 0; i < parts.length; i += CHUNK) {
+      const rows = parts.slice(i, i + CHUNK);
+      const params = rows.flatMap((a) => [
+        a.probeId, toSqlTs(a.bucketMs), a.n, a.orpMin, a.orpMax, a.orpSum / a.n, a.ehMin, a.ehMax, a.ehSum / a.n,
+        a.tempMin, a.tempMax, a.tempSum / a.n, a.logSum / a.n, a.logMin, a.logMax,
+      ]);
+      await conn.query(`INSERT INTO ${table} (${COLUMNS}) VALUES ${placeholders(rows.length, 15)} ON DUPLICATE KEY UPDATE ${MERGE}`, params);
+    }
   }
 }

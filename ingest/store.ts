@@ -1,6 +1,6 @@
 import { placeholders, toSqlTs, type PoolConnection } from './db.ts';
 import type { ConvertedReading } from './pipeline.ts';
-import { recomputeRollups } from './rollups.ts';
+import { addToRollups } from './rollups.ts';
 
 export type StoreResult = {
   /** New rows written. */
@@ -50,7 +50,7 @@ async function lockExisting(conn: PoolConnection, keys: { probeId: number; ts: s
  * key is written to reading_conflicts and the first stored value kept. Never INSERT IGNORE:
  * the insert is a plain INSERT of keys just proven absent under lock, so any surprise is a
  * loud error that rolls the flush back (and it is retried), never a silent skip.
- * Touched 1 m and 1 h rollups are recomputed in the same transaction.
+ * The new rows are added to their 1 m and 1 h rollups in the same transaction.
  * @param source who sent the readings, recorded on conflicts (e.g. 'mqtt', 'import:file.csv')
  */
 export async function storeReadings(conn: PoolConnection, readings: ConvertedReading[], source: string): Promise<StoreResult> {
@@ -98,7 +98,7 @@ export async function storeReadings(conn: PoolConnection, readings: ConvertedRea
       `INSERT INTO reading_conflicts (probe_id, ts, stored_orp_mv, stored_temp_c, incoming_orp_mv, incoming_temp_c, incoming_seq, source, received_at)
        VALUES ${placeholders(rows.length, 9)}`, params);
   }
-  await recomputeRollups(conn, result.inserted);
+  await addToRollups(conn, result.inserted);
   result.stored = result.inserted.length;
   result.conflicts = conflicts.length;
   return result;
