@@ -52,6 +52,7 @@ export const applyTemplateSchema = z.object({
   templateId: z.string().min(1).max(60),
   reason,
 });
+export type ApplyTemplateInput = z.infer<typeof applyTemplateSchema>;
 
 export const acknowledgeSchema = z.object({ comment: z.string().trim().max(1000).optional() });
 export const commentSchema = z.object({ text: text(1000, 'a comment') });

@@ -7,5 +7,7 @@ export function TankRoute() {
   const id = Number(useParams().id);
   if (!Number.isInteger(id) || id <= 0) return <ErrorState title="No such tank" detail="The address does not name a tank." />;
   // Keyed by id: moving between tanks starts clean (zoom, cursor, placeholder data).
-  return <TankView key={id} tankId={id} alarmsHref={`${SCREENS.alarms.path}?tank=${id}`} />;
+  return (
+    <TankView key={id} tankId={id} alarmsHref={`${SCREENS.alarms.path}?tank=${id}`} definitionsHref={`${SCREENS.alarms.path}?view=definitions&tank=${id}`} />
+  );
 }

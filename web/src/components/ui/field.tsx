@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 type FieldShellProps = { label: string; id: string; error?: string; hint?: string; children: ReactNode };
 
@@ -24,6 +24,13 @@ function FieldShell({ label, id, error, hint, children }: FieldShellProps) {
   );
 }
 
+/** The control's id and its link to the message under it (error or hint). */
+const controlAria = (id: string, error?: string, hint?: string) => ({
+  id,
+  'aria-invalid': error ? true : undefined,
+  'aria-describedby': error || hint ? `${id}-msg` : undefined,
+});
+
 const CONTROL =
   'h-10 w-full rounded-md border bg-panel px-3 text-base text-ink placeholder:text-ink-muted aria-[invalid=true]:border-attention-1 aria-[invalid=true]:border-2';
 
@@ -41,9 +48,7 @@ export function TextField({ label, error, hint, unit, className = '', ...input }
     <FieldShell label={label} id={id} error={error} hint={hint}>
       <div className="relative">
         <input
-          id={id}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={error || hint ? `${id}-msg` : undefined}
+          {...controlAria(id, error, hint)}
           className={`${CONTROL} border-line-strong ${unit ? 'pr-12' : ''} ${className}`}
           {...input}
         />
@@ -67,9 +72,7 @@ export function SelectField({ label, error, hint, options, className = '', ...se
   return (
     <FieldShell label={label} id={id} error={error} hint={hint}>
       <select
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error || hint ? `${id}-msg` : undefined}
+        {...controlAria(id, error, hint)}
         className={`${CONTROL} border-line-strong ${className}`}
         {...select}
       >
@@ -79,6 +82,22 @@ export function SelectField({ label, error, hint, options, className = '', ...se
           </option>
         ))}
       </select>
+    </FieldShell>
+  );
+}
+
+type TextAreaFieldProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'> & { label: string; error?: string; hint?: string };
+
+/** A multi-line field: notes, handovers, an alarm's rationalisation. */
+export function TextAreaField({ label, error, hint, className = '', ...rest }: TextAreaFieldProps) {
+  const id = useId();
+  return (
+    <FieldShell label={label} id={id} error={error} hint={hint}>
+      <textarea
+        {...controlAria(id, error, hint)}
+        className={`min-h-20 w-full rounded-md border border-line-strong bg-panel px-3 py-2 text-base text-ink aria-[invalid=true]:border-2 aria-[invalid=true]:border-attention-1 ${className}`}
+        {...rest}
+      />
     </FieldShell>
   );
 }

@@ -8,4 +8,7 @@ export const alarmKeys = {
   detail: (id: number) => [...alarmKeys.details(), id] as const,
   history: (p: HistoryParams) => [...alarmKeys.all, 'history', p] as const,
   figures: (p: FiguresParams) => [...alarmKeys.all, 'figures', p] as const,
+  definitionLists: () => [...alarmKeys.all, 'definitions'] as const,
+  definitions: (tankId: number) => [...alarmKeys.definitionLists(), tankId] as const,
+  templates: () => [...alarmKeys.all, 'templates'] as const,
 };

@@ -58,7 +58,7 @@ export function AlarmActions({ alarm, role }: { alarm: AlarmView; role: Role }) 
           onSubmit={(text) => rts.mutate({ definitionId: alarm.definitionId, comment: text }, { onSuccess: done })} />
       )}
       <ReasonForm label="Comment" action="Add comment" minLength={1} pending={comment.isPending} error={comment.error}
-        onSubmit={(text) => comment.mutate({ id: alarm.id, text })} />
+        onSubmit={(text, clear) => comment.mutate({ id: alarm.id, text }, { onSuccess: clear })} />
     </div>
   );
 }

@@ -5,15 +5,19 @@ import { ActiveAlarms } from './active-alarms';
 import { AlarmDetail } from './alarm-detail';
 import { AlarmFiguresPanel } from './alarm-figures-panel';
 import { AlarmHistory } from './alarm-history';
+import { DefinitionsView } from './definitions-view';
 import type { DeskContext, DeskFilters } from './desk-types';
 
-const VIEWS = [{ id: 'active', label: 'Open alarms' }, { id: 'history', label: 'History' }, { id: 'figures', label: 'Alarm-rate figures' }] as const;
+const VIEWS = [
+  { id: 'active', label: 'Open alarms' }, { id: 'history', label: 'History' }, { id: 'figures', label: 'Alarm-rate figures' },
+  { id: 'definitions', label: 'Alarm definitions' },
+] as const;
 type View = (typeof VIEWS)[number]['id'];
 const FILTER_KEYS = ['site', 'circuit', 'tank', 'priority', 'state'] as const;
 
 /**
  * The Alarm desk: open alarms, history and figures, with the selected alarm's detail beside
- * them. View, filters and selection live in the address, so a link (from a mail, the banner or
+ * them, and the alarm definitions. View, filters and selection live in the address, so a link (from a mail, the banner or
  * a tile) opens the desk exactly there. `aside` is what the route adds (who is on call now).
  */
 export function AlarmDesk({ aside, ...ctx }: DeskContext & { aside?: ReactNode }) {
@@ -59,6 +63,7 @@ export function AlarmDesk({ aside, ...ctx }: DeskContext & { aside?: ReactNode }
           )}
           {view === 'history' && <AlarmHistory {...ctx} selectedId={selected} onSelect={select} />}
           {view === 'figures' && <AlarmFiguresPanel timeZone={ctx.timeZone} />}
+          {view === 'definitions' && <DefinitionsView {...ctx} tankId={filters.tank} onTank={(tank) => update({ tank })} />}
         </div>
         {selected && <AlarmDetail key={selected} id={selected} role={ctx.role} timeZone={ctx.timeZone} onClose={() => select(null)} />}
       </div>

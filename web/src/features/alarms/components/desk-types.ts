@@ -10,3 +10,5 @@ export type DeskFilters = { site?: string; circuit?: number; tank?: number; prio
 
 export const ACK_ROLES: readonly Role[] = ['supervisor', 'engineer', 'admin'];
 export const SERVICE_ROLES: readonly Role[] = ['metallurgist', 'admin'];
+/** Who changes alarm definitions and applies templates (server: definitions.router.ts). */
+export const SETTINGS_ROLES: readonly Role[] = ['metallurgist', 'admin'];

@@ -1,10 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import type { ShiftLogEntryView } from '@shared/schemas/shifts';
 import { Button } from '../../../components/ui/button';
-import { SelectField, TextField } from '../../../components/ui/field';
+import { SelectField, TextAreaField, TextField } from '../../../components/ui/field';
 import { formMessage, serverFieldErrors } from '../../../lib/form';
 import { useAddEntry } from '../api/add-entry';
-import { NoteField } from './note-field';
 
 export type TankOption = { id: number; tag: string };
 
@@ -32,7 +31,7 @@ export function EntryForm({ tanks, correcting, onDone }: Props) {
           Correcting #{correcting.id} by {correcting.author.name}: “{correcting.body}”. The original stays as written.
         </p>
       )}
-      <NoteField label={correcting ? 'Correction' : 'Entry'} value={body} onChange={(e) => setBody(e.target.value)} maxLength={4000} error={errors.body} required />
+      <TextAreaField label={correcting ? 'Correction' : 'Entry'} value={body} onChange={(e) => setBody(e.target.value)} maxLength={4000} error={errors.body} required />
       <div className="grid gap-3 sm:grid-cols-2">
         <SelectField label="Tank (optional)" value={tankId} onChange={(e) => setTankId(e.target.value)} error={errors.tankId}
           options={[{ value: '', label: '—' }, ...tanks.map((t) => ({ value: String(t.id), label: t.tag }))]} />

@@ -1,10 +1,10 @@
 import { useState } from 'react';
 import type { ShiftLogEntryView } from '@shared/schemas/shifts';
 import { Button } from '../../../components/ui/button';
+import { TextAreaField } from '../../../components/ui/field';
 import { formatDateTime } from '../../../lib/format';
 import { formMessage } from '../../../lib/form';
 import { useEditEntry } from '../api/edit-entry';
-import { NoteField } from './note-field';
 
 type Props = { entry: ShiftLogEntryView; timeZone: string; mine: boolean; open: boolean; onCorrect: (e: ShiftLogEntryView) => void };
 
@@ -32,7 +32,7 @@ export function EntryItem({ entry, timeZone, mine, open, onCorrect }: Props) {
         </p>
       ) : (
         <div className="mt-2 flex flex-col gap-2">
-          <NoteField label="Reword your entry" value={draft} onChange={(e) => setDraft(e.target.value)} maxLength={4000} error={formMessage(edit.error) ?? undefined} />
+          <TextAreaField label="Reword your entry" value={draft} onChange={(e) => setDraft(e.target.value)} maxLength={4000} error={formMessage(edit.error) ?? undefined} />
           <div className="flex justify-end gap-2">
             <Button size="sm" onClick={() => setDraft(null)}>Cancel</Button>
             <Button size="sm" variant="primary" disabled={!draft.trim() || edit.isPending}

@@ -1,9 +1,9 @@
 import { useState } from 'react';
 import type { ShiftView } from '@shared/schemas/shifts';
 import { Button } from '../../../components/ui/button';
+import { TextAreaField } from '../../../components/ui/field';
 import { formMessage, serverFieldErrors } from '../../../lib/form';
 import { useCloseShift } from '../api/close-shift';
-import { NoteField } from './note-field';
 
 /** The supervisor's handover: a note, then the shift is closed and its entries frozen (asks first). */
 export function HandoverForm({ shift, onClosed }: { shift: ShiftView; onClosed: (s: ShiftView) => void }) {
@@ -13,7 +13,7 @@ export function HandoverForm({ shift, onClosed }: { shift: ShiftView; onClosed: 
   const errors = serverFieldErrors(close.error);
   return (
     <div className="flex flex-col gap-3">
-      <NoteField label="Handover note" value={note} onChange={(e) => setNote(e.target.value)} maxLength={8000} error={errors.handoverNote}
+      <TextAreaField label="Handover note" value={note} onChange={(e) => setNote(e.target.value)} maxLength={8000} error={errors.handoverNote}
         placeholder="State of the tanks, what is pending, what to watch" />
       {formMessage(close.error) && <p role="alert" className="text-sm font-medium text-attention-1-ink">{formMessage(close.error)}</p>}
       <div className="flex justify-end gap-2">

@@ -41,7 +41,9 @@ function publishedReference(id: string) {
   }
 }
 
-export function TankFacts({ tank, timeZone, freshness, alarmsHref }: { tank: TankSummary; timeZone: string; freshness: Freshness; alarmsHref?: string }) {
+type Props = { tank: TankSummary; timeZone: string; freshness: Freshness; alarmsHref?: string; definitionsHref?: string };
+
+export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHref }: Props) {
   const { probe, calibration, latest, band } = tank;
   const alarm = useTankAlarm(tank.id);
   const tempC = latest?.tempC;
@@ -176,6 +178,13 @@ export function TankFacts({ tank, timeZone, freshness, alarmsHref }: { tank: Tan
           <Fact label="">
             <Link to={alarmsHref} className="text-info-ink underline">
               {alarm ? 'Open on the Alarm desk' : 'Alarm history on the Alarm desk'}
+            </Link>
+          </Fact>
+        )}
+        {definitionsHref && (
+          <Fact label="">
+            <Link to={definitionsHref} className="text-info-ink underline">
+              Alarm definitions: limits, delays, what to do
             </Link>
           </Fact>
         )}

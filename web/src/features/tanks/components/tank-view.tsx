@@ -14,7 +14,7 @@ import { TankFacts } from './tank-facts';
 import { TrendCharts } from './trend-charts';
 
 /** Trends on the left two thirds, facts on the right third. */
-export function TankView({ tankId, alarmsHref }: { tankId: number; alarmsHref?: string }) {
+export function TankView({ tankId, alarmsHref, definitionsHref }: { tankId: number; alarmsHref?: string; definitionsHref?: string }) {
   const detail = useTank(tankId);
   const [range, setRange] = useTrendRange();
   const trend = useTrend(tankId, range);
@@ -81,7 +81,7 @@ export function TankView({ tankId, alarmsHref }: { tankId: number; alarmsHref?: 
         )}
       </div>
       <aside aria-label="Facts" className="min-h-0 overflow-auto rounded-lg border border-line bg-panel p-4">
-        <TankFacts tank={tank} timeZone={site.timeZone} freshness={freshness} alarmsHref={alarmsHref} />
+        <TankFacts tank={tank} timeZone={site.timeZone} freshness={freshness} alarmsHref={alarmsHref} definitionsHref={definitionsHref} />
       </aside>
     </div>
   );
