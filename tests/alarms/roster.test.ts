@@ -71,4 +71,22 @@ describe('Call roster', () => {
     const res = await send('put', '/api/roster/policy', 'admin', { priority: 3, steps: [{ afterMin: 120, notify: ['primary'] }], reason: 'Low priority gets a mail after 2 h' });
     expect(res.body.steps).toEqual([{ priority: 3, step: 1, afterMin: 120, notify: ['primary'] }]);
   });
+
+  it('when a supervisor clears a priority, then it sends no e-mail; an engineer may not change the policy; bad steps are named by path', async () => {
+    expect((await send('put', '/api/roster/policy', 'engineer', { priority: 2, steps: [], reason: 'Screens only' })).status).toBe(403);
+    const bad = await send('put', '/api/roster/policy', 'supervisor', { priority: 2, steps: [{ afterMin: 0, notify: [] }], reason: 'Trying' });
+    expect(bad.status).toBe(400);
+    expect(bad.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(bad.body.errors).toEqual(expect.arrayContaining([
+      { path: 'steps.0.afterMin', message: 'At least 1 minute' },
+      { path: 'steps.0.notify', message: 'Pick whom to notify' },
+    ]));
+    const res = await send('put', '/api/roster/policy', 'supervisor', { priority: 2, steps: [], reason: 'Medium shows on screens only' });
+    expect(res.status).toBe(200);
+    expect(res.body.steps).toEqual([]);
+    expect((await get('/api/roster/policy')).body.steps.filter((s: { priority: number }) => s.priority === 2)).toEqual([]);
+    const [audit] = await t.sequelize.query<{ reason: string; user_id: number }>(
+      "SELECT reason, user_id FROM audit_log WHERE action = 'escalation.update' AND entity_id = '2' ORDER BY id DESC LIMIT 1", { type: QueryTypes.SELECT });
+    expect(audit).toEqual({ reason: 'Medium shows on screens only', user_id: t.users.supervisor });
+  });
 });

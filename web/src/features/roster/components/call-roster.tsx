@@ -27,7 +27,7 @@ export function CallRoster({ role, timeZone }: { role: Role; timeZone: string })
           {shifts.data ? <ShiftTable shifts={shifts.data} timeZone={timeZone} canManage={canManage} now={now} /> : <p className="text-ink-muted">{shifts.isError ? shifts.error.message : 'Loading…'}</p>}
         </Panel>
         <div className="flex flex-col gap-4">
-          <PolicyView />
+          <PolicyView canManage={canManage} />
           {canManage && <Panel title="Add a shift"><ShiftForm timeZone={timeZone} /></Panel>}
         </div>
       </div>
