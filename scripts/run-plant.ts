@@ -12,6 +12,13 @@
  *   MQTT_URL             mqtt(s)://… of an existing broker: no embedded broker
  *   SMTP_URL             smtp(s)://… of a real mail server: no mail catcher
  *   SIMULATOR=on         'off' on a real site: no simulated plant (simulators/plant.ts)
+ *   FERRISIGHT_DATA_DIR=.data
+ *                        where this instance keeps everything (MariaDB, broker sessions,
+ *                        secrets, caught mail, uploads, supervisor.json); relative to the
+ *                        checkout. One supervisor per data folder: a second instance with its
+ *                        own folder (and its own ports) can run beside `npm start` (npm test's
+ *                        browser stage does this, scripts/run-e2e.ts)
+ *   WEB_DIST=dist/web    where the built web app goes and is served from (relative to the checkout)
  *   JWT_SECRET           token signing key; unset: generated once into .data/secrets.json
  *   SERVICE_MQTT_PASSWORD, SIM_DEVICE_PASSWORD
  *                        broker passwords of the internal service account and the simulated
@@ -27,7 +34,7 @@
  *   REDIS_PORT=8474      private redis-server on 127.0.0.1 (data-less, .data/redis/)
  *   REDIS_URL            redis(s)://… of an existing Redis: no private redis-server
  * Children get: DATABASE_URL, MQTT_URL, SMTP_URL, JWT_SECRET, SERVICE_MQTT_PASSWORD,
- * SIM_DEVICE_PASSWORD, PORT, MQTT_PORT, SMTP_PORT, FERRISIGHT_PROC, NODE_ENV, DATA_DIR.
+ * SIM_DEVICE_PASSWORD, PORT, MQTT_PORT, SMTP_PORT, FERRISIGHT_PROC, NODE_ENV, DATA_DIR, WEB_DIST.
  */
 import { existsSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
@@ -35,7 +42,8 @@ import { fileURLToPath } from 'node:url';
 import { PartSupervisor, pipeLines, prefix, type PartSpec } from './lib/children.ts';
 import { MariadbError, mariadbPid, mariadbQuery, sqlString, startMariadb, stopMariadb, type MariadbOptions } from './lib/mariadb.ts';
 import { isPortFree, parsePort, suggestPort } from './lib/ports.ts';
-import { pidAlive, seconds, sleep, waitForExit } from './lib/proc.ts';
+import { pidAlive, seconds, sleep } from './lib/proc.ts';
+import { liveSupervisor, readRunFile, runFilePath, stopLeftoverParts } from './lib/run-file.ts';
 import { loadSecrets } from './lib/secrets.ts';
 import { syncAppGrants } from './lib/grants.ts';
 import { randomBytes } from 'node:crypto';
@@ -43,10 +51,11 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { clusterParts, clusterPorts, clusterRedis, clusterSettings } from './lib/cluster-plan.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-const DATA_DIR = path.join(ROOT, '.data');
+const env = process.env;
+const DATA_DIR = path.resolve(ROOT, env.FERRISIGHT_DATA_DIR || '.data');
+const WEB_DIST = path.resolve(ROOT, env.WEB_DIST || 'dist/web');
 const DEV = process.argv.includes('--dev');
 const CLUSTER = process.argv.includes('--cluster');
-const env = process.env;
 
 process.stdout.on('error', () => {});
 process.stderr.on('error', () => {});
@@ -87,9 +96,10 @@ const dbOpts: MariadbOptions = { baseDir: path.join(DATA_DIR, 'mariadb'), port: 
 // ---- shutdown -----------------------------------------------------------------------------
 const parts = new PartSupervisor(say, () => void shutdown(1), 5, () => writeRunFile());
 
-// .data/supervisor.json: this supervisor's pid and its parts' pids, to refuse a second
-// supervisor on the same .data/ and to clean up parts left behind by one that was killed.
-const RUN_FILE = path.join(DATA_DIR, 'supervisor.json');
+// <data folder>/supervisor.json (scripts/lib/run-file.ts): this supervisor's pid and its parts'
+// pids, to refuse a second supervisor on the same data folder and to clean up parts left
+// behind by one that was killed.
+const RUN_FILE = runFilePath(DATA_DIR);
 function writeRunFile(): void {
   try {
     writeFileSync(RUN_FILE, JSON.stringify({ pid: process.pid, port: PORT, parts: parts.pids() }) + '\n', { mode: 0o600 });
@@ -98,44 +108,16 @@ function writeRunFile(): void {
   }
 }
 
-function cmdline(pid: number): string {
-  try {
-    return readFileSync(`/proc/${pid}/cmdline`, 'utf8').replace(/\0/g, ' ');
-  } catch {
-    return '';
-  }
-}
-
-/** Exits when another supervisor runs on this .data/; stops parts an earlier, killed one left. */
+/** Exits when another supervisor runs on this data folder; stops parts an earlier, killed one left. */
 async function claimDataDir(): Promise<void> {
-  let prev: { pid?: number; port?: number; parts?: Record<string, number> } = {};
-  try {
-    prev = JSON.parse(readFileSync(RUN_FILE, 'utf8'));
-  } catch {
-    /* none */
-  }
-  if (prev.pid && prev.pid !== process.pid && pidAlive(prev.pid) && cmdline(prev.pid).includes('run-plant.ts')) {
-    fail(`Ferrisight is already running (pid ${prev.pid}, http://127.0.0.1:${prev.port ?? PORT}): stop it with Ctrl-C in its terminal or kill ${prev.pid}`);
+  const prev = readRunFile(DATA_DIR);
+  const other = liveSupervisor(prev);
+  if (other) {
+    fail(`Ferrisight is already running on ${path.relative(ROOT, DATA_DIR) || '.'}/ (pid ${other}, http://127.0.0.1:${prev.port ?? PORT}): stop it with Ctrl-C in its terminal or kill ${other}`);
     process.exit(1);
   }
-  const leftovers = Object.values(prev.parts ?? {}).filter((pid) => pidAlive(pid) && / --import tsx |^redis-server /.test(cmdline(pid)));
-  for (const pid of leftovers) {
-    try {
-      process.kill(-pid, 'SIGTERM');
-    } catch {
-      /* gone */
-    }
-  }
-  for (const pid of leftovers) {
-    if (!(await waitForExit(pid, 10_000))) {
-      try {
-        process.kill(-pid, 'SIGKILL');
-      } catch {
-        /* gone */
-      }
-    }
-  }
-  if (leftovers.length) say(`Stopped ${leftovers.length} part(s) left running by an earlier start`);
+  const stopped = await stopLeftoverParts(prev);
+  if (stopped) say(`Stopped ${stopped} part(s) left running by an earlier start`);
   writeRunFile();
 }
 let stopping = false;
@@ -309,6 +291,7 @@ async function main(): Promise<void> {
     SMTP_PORT: String(SMTP_PORT),
     NODE_ENV: DEV ? 'development' : 'production',
     DATA_DIR,
+    WEB_DIST,
   };
   const tsx = (file: string) => [process.execPath, '--import', 'tsx', file];
 
@@ -340,7 +323,7 @@ async function main(): Promise<void> {
 
   // ---- web app --------------------------------------------------------------------------------
   if (!DEV) {
-    const index = path.join(ROOT, 'dist/web/index.html');
+    const index = path.join(WEB_DIST, 'index.html');
     if (!existsSync(path.join(ROOT, 'index.html'))) {
       say('index.html not found: skipping the web build');
     } else {
@@ -349,7 +332,7 @@ async function main(): Promise<void> {
       if (built === 0 || Math.max(...sources) > built) {
         const t = Date.now();
         say('Building the web app (vite build)…');
-        const { code, output } = await runStep('vite', ['npx', 'vite', 'build'], { ...env, NODE_ENV: 'production' }, true);
+        const { code, output } = await runStep('vite', ['npx', 'vite', 'build', '--outDir', WEB_DIST], { ...env, NODE_ENV: 'production' }, true);
         if (stopping) return;
         if (code !== 0) {
           // The plant (ingest, alarms, API) matters more than the pages: keep going without them.
@@ -445,7 +428,7 @@ function banner(ms: number): void {
       /* unreadable: show no sign-ins */
     }
   }
-  lines.push('Stop with Ctrl-C (stops every part, MariaDB included; data is kept in .data/)', '');
+  lines.push(`Stop with Ctrl-C (stops every part, MariaDB included; data is kept in ${path.relative(ROOT, DATA_DIR) || '.'}/)`, '');
   say(lines.join('\n'));
 }
 

@@ -86,8 +86,9 @@ export function createApp(deps: AppDeps): Express {
   if (deps.webDist && fs.existsSync(path.join(deps.webDist, 'index.html'))) {
     const dist = path.resolve(deps.webDist);
     app.use(express.static(dist, { index: false, maxAge: '1h' }));
-    // Client-side routes: every other GET gets the app shell.
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
+    // Client-side routes: every other GET gets the app shell. `root` keeps the dot-file check
+    // inside dist, so a build under a dot folder (e.g. .data/test-e2e/web) is still served.
+    app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: dist }));
   }
   app.use(notFoundHandler);
   app.use(errorHandler);

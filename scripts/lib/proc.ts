@@ -1,4 +1,4 @@
-import { spawn, type SpawnOptions } from 'node:child_process';
+import { spawn, type ChildProcess, type SpawnOptions } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 
@@ -38,6 +38,51 @@ export function runCommand(
       resolve({ code, signal, stdout, stderr });
     });
   });
+}
+
+/**
+ * Starts a step whose output goes straight to ours. `exit` resolves to its exit code: 130
+ * after SIGINT, 143 after another signal, 127 when it could not start.
+ */
+export function runInherited(command: string[], opts: { cwd: string; env: NodeJS.ProcessEnv }): { child: ChildProcess; exit: Promise<number> } {
+  const [cmd, ...args] = command;
+  const child = spawn(cmd!, args, { cwd: opts.cwd, env: opts.env, stdio: ['ignore', 'inherit', 'inherit'] });
+  const exit = new Promise<number>((resolve) => {
+    child.on('error', (err) => {
+      process.stderr.write(`${String(err)}\n`);
+      resolve(127);
+    });
+    child.on('exit', (code, signal) => resolve(code ?? (signal === 'SIGINT' ? 130 : 128 + 15)));
+  });
+  return { child, exit };
+}
+
+/** Calls `handler` on the first SIGINT, SIGTERM or SIGHUP; later ones are ignored. */
+export function onFirstSignal(handler: (sig: NodeJS.Signals) => void): void {
+  let seen = false;
+  for (const sig of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
+    process.on(sig, () => {
+      if (seen) return;
+      seen = true;
+      handler(sig);
+    });
+  }
+}
+
+/**
+ * A `finish(code)` for a script: the first call runs `cleanUp` once and exits with its code;
+ * later calls (an interrupt during the clean-up) wait for that exit.
+ */
+export function finisher(cleanUp: () => Promise<void>): (code: number) => Promise<never> {
+  let finishing = false;
+  return async (code) => {
+    if (!finishing) {
+      finishing = true;
+      await cleanUp();
+      process.exit(code);
+    }
+    return new Promise<never>(() => {});
+  };
 }
 
 /** True while the process exists and is not a zombie. */

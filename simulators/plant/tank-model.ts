@@ -5,6 +5,8 @@
  * where oxidation is microbial (Train A, bioleach) or dosed oxidant under a P-controller
  * (Train B, ferric leach), consumption is ferric reduced by the sulfides being leached, and
  * dilution is fresh feed. Temperature relaxes to its target with a slow random walk.
+ * A feed upset is a surge of reduced slurry (FEED_UPSET): more flow, of nearly all-ferrous
+ * liquor, carrying freshly ground sulfides that reduce ferric faster than the leached solids.
  * No I/O and no clock: the caller passes dt and a random source, so tests are deterministic.
  */
 
@@ -28,9 +30,19 @@ export type TankState = { ferricFraction: number; tempC: number; oxidationPerS: 
 export type TankInputs = {
   /** Oxidant pump (Train B) or aeration (Train A) running. */
   oxidantOn: boolean;
-  /** Feed upset: reduced, more dilute feed arrives faster. */
+  /** Feed upset: a surge of reduced slurry (FEED_UPSET). */
   feedUpset: boolean;
 };
+
+/**
+ * The feed upset: six times the design feed flow (residence ~20 min instead of ~2 h) of
+ * liquor that is 98 % ferrous, with fresh regrind sulfides that triple the ferric
+ * consumption. Microbial oxidation cannot keep up: a bioleach tank at ratio 14 falls below 8
+ * in about half a minute and settles near 4 while the surge lasts; the dosing controller of a
+ * ferric leach tank rides it out inside its band. It recovers within a few minutes once the
+ * feed is back to normal.
+ */
+export const FEED_UPSET = { flowFactor: 6, feedFraction: 0.02, consumptionFactor: 3 } as const;
 
 /** A random number in [0, 1), e.g. Math.random. */
 export type Random = () => number;
@@ -61,8 +73,9 @@ export function initialState(p: TankParams): TankState {
 export function stepTank(state: TankState, p: TankParams, inputs: TankInputs, dtS: number, random: Random): TankState {
   let { ferricFraction: f, tempC, oxidationPerS: ox } = state;
   const steady = steadyOxidationPerS(p);
-  const dilution = inputs.feedUpset ? p.dilutionPerS * 6 : p.dilutionPerS;
-  const feed = inputs.feedUpset ? 0.02 : p.feedFraction;
+  const dilution = inputs.feedUpset ? p.dilutionPerS * FEED_UPSET.flowFactor : p.dilutionPerS;
+  const feed = inputs.feedUpset ? FEED_UPSET.feedFraction : p.feedFraction;
+  const consumption = inputs.feedUpset ? p.consumptionPerS * FEED_UPSET.consumptionFactor : p.consumptionPerS;
   for (let left = dtS; left > 1e-9; left -= 5) {
     const h = Math.min(5, left);
     if (!inputs.oxidantOn) {
@@ -76,7 +89,7 @@ export function stepTank(state: TankState, p: TankParams, inputs: TankInputs, dt
       ox += ((steady * activity - ox) / 600) * h + steady * 0.02 * (random() - 0.5) * Math.sqrt(h);
       ox = Math.max(0, ox);
     }
-    f = clampFraction(f + (ox * (1 - f) - p.consumptionPerS * f - dilution * (f - feed)) * h);
+    f = clampFraction(f + (ox * (1 - f) - consumption * f - dilution * (f - feed)) * h);
     tempC += ((p.targetTempC - tempC) / 1800) * h + 0.05 * (random() - 0.5) * Math.sqrt(h);
   }
   return { ferricFraction: f, tempC, oxidationPerS: ox };

@@ -2,6 +2,7 @@
  * Browser test of the Shift log, the Shift digest on paper and the historical import, against
  * the whole running app behind E2E_BASE_URL (skipped when unset; demo users' password in
  * E2E_PASSWORD). Screenshots and PDFs land in test-results/.
+ * npm test's last stage (scripts/run-e2e.ts, or `npm run test:e2e`) starts such an app and sets both.
  */
 import fs from 'node:fs';
 import os from 'node:os';

@@ -2,6 +2,7 @@
  * Browser test of the Floor and the Tank page against the whole running app
  * (API, ingest, simulator and the built web app behind E2E_BASE_URL).
  * Skipped when E2E_BASE_URL is not set; the demo users' password comes from E2E_PASSWORD.
+ * npm test's last stage (scripts/run-e2e.ts, or `npm run test:e2e`) starts such an app and sets both.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -108,9 +109,10 @@ describe.skipIf(!BASE_URL)('Floor and Tank page in a browser', () => {
         await page.locator('[data-testid="tank-tile"]').first().click();
         await page.waitForURL(/\/tanks\/\d+/, { timeout: 10_000 });
         await page.waitForSelector('[data-testid="trend-charts"] canvas', { timeout: 15_000 });
-        await page.waitForFunction(() => document.querySelectorAll('[data-testid="trend-charts"] canvas').length >= 3);
-        await page.waitForTimeout(500);
-        expect(await paintedPixels(page)).toBeGreaterThan(1_000);
+        await page.waitForFunction(() => document.querySelectorAll('[data-testid="trend-charts"] canvas').length >= 3, undefined, { timeout: 15_000 });
+        // uPlot draws once the trend data has arrived: wait for the paint, not for a fixed time.
+        await expect.poll(() => paintedPixels(page), { timeout: 15_000 }).toBeGreaterThan(1_000);
+        expect(await page.getByText('No readings in this range.').count()).toBe(0);
         await expect(page.getByText('ORP in real slurries is a mixed potential', { exact: false }).count()).resolves.toBe(1);
         await page.screenshot({ path: path.join(SHOTS, `tank-${role}.png`) });
 

@@ -3,6 +3,7 @@
  * E2E_BASE_URL (skipped when unset; the demo users' password in E2E_PASSWORD). The simulator
  * must be running, so tank A1 has probe readings around the sampling times used below.
  * Screenshots land in test-results/.
+ * npm test's last stage (scripts/run-e2e.ts, or `npm run test:e2e`) starts such an app and sets both.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -78,5 +79,5 @@ describe.skipIf(!BASE_URL)('Assays and Calibration in a browser', () => {
     await page.getByText(/Version \d+ applied/).waitFor({ timeout: 15_000 });
     await page.screenshot({ path: path.join(SHOTS, 'workbench-calibration-applied.png'), fullPage: true });
     expect(errors).toEqual([]);
-  });
+  }, 90_000);
 });
