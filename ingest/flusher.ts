@@ -4,8 +4,8 @@ import { insertDeadLetters, type DeadLetter } from './dead-letter.ts';
 import type { Decoded } from './decode.ts';
 import type { IngestMetrics } from './metrics.ts';
 import { processDecoded, type ConvertedReading } from './pipeline.ts';
-import type { ProbeCache } from './probe-cache.ts';
-import { storeReadings } from './store.ts';
+import type { ProbeCache, ProbeLookup } from './probe-cache.ts';
+import { storeReadings, type StoreResult } from './store.ts';
 
 /** One received message waiting for its commit; `ack` sends the PUBACK, `isStale` is true once its connection is gone. */
 export type QueueItem = {
@@ -17,9 +17,14 @@ export type QueueItem = {
   isStale: () => boolean;
 };
 
+/** Writes one flush in one transaction. */
+export type StoreFlush = (readings: ConvertedReading[], letters: DeadLetter[]) => Promise<StoreResult>;
+
 export type FlusherOptions = {
   pool: Pool;
-  cache: ProbeCache;
+  cache: ProbeLookup & Pick<ProbeCache, 'ensure'>;
+  /** Defaults to storeReadings and insertDeadLetters in one MariaDB transaction on `pool`. */
+  store?: StoreFlush;
   metrics: IngestMetrics;
   log: Logger;
   retentionDays: number;
@@ -29,7 +34,11 @@ export type FlusherOptions = {
   maxReadings: number;
   /** Above this many queued readings, intake stops reading from the broker. */
   maxQueuedReadings: number;
+  /** Transactions committing at once (each on its own connection); 1 = strictly one after another. */
+  maxInFlight?: number;
   onCommitted: (inserted: ConvertedReading[]) => void;
+  /** Runs a flush's acknowledgements; the intake corks its socket around them (one write, not one per PUBACK). */
+  sendAcks?: (send: () => void) => void;
 };
 
 const weight = (item: QueueItem) => Math.max(1, item.decoded.readings.length);
@@ -39,6 +48,11 @@ const weight = (item: QueueItem) => Math.max(1, item.decoded.readings.length);
  * message of that transaction is acknowledged. A failed commit acknowledges nothing and is
  * retried with backoff until MariaDB answers; the worker never exits on a DB error, and
  * anything still unacknowledged is redelivered by the broker (clean: false session).
+ *
+ * Up to maxInFlight transactions commit at once, so one batch's round trips and fsync overlap
+ * the next one's work. What follows a commit — the PUBACKs and onCommitted (live push, alarm
+ * evaluation) — still runs strictly in the order the batches were taken: PUBACKs go out in the
+ * order the PUBLISHes arrived (MQTT-4.6.0-2) and the alarm engine sees readings in order.
  */
 export class Flusher {
   private queue: QueueItem[] = [];
@@ -46,7 +60,7 @@ export class Flusher {
   private running: Promise<void> | null = null;
   private timer: NodeJS.Timeout | null = null;
   private stopping = false;
-  private wake: (() => void) | null = null;
+  private readonly wakers = new Set<() => void>();
   private roomWaiters: (() => void)[] = [];
 
   constructor(private readonly o: FlusherOptions) {}
@@ -75,7 +89,7 @@ export class Flusher {
   async stop(): Promise<void> {
     this.stopping = true;
     if (this.timer) clearTimeout(this.timer);
-    this.wake?.();
+    for (const wake of this.wakers) wake();
     await this.running;
   }
 
@@ -92,13 +106,44 @@ export class Flusher {
   }
 
   private async drain(): Promise<void> {
-    while (!this.stopping && this.queue.length > 0) {
-      const batch = this.take();
-      const committed = await this.commitWithRetry(batch);
-      if (!committed) return;
-      for (const item of batch) item.ack();
-      while (this.hasRoom() && this.roomWaiters.length > 0) this.roomWaiters.shift()!();
+    const maxInFlight = Math.max(1, this.o.maxInFlight ?? 1);
+    const inFlight = new Set<Promise<void>>();
+    // Resolves once every earlier batch is acknowledged (or given up); false once one was given up.
+    let previous: Promise<boolean> = Promise.resolve(true);
+    while (true) {
+      while (!this.stopping && this.queue.length > 0 && inFlight.size < maxInFlight) {
+        const batch = this.take();
+        const committed = this.commitWithRetry(batch);
+        const before = previous;
+        const settled = (async () => {
+          const [inOrder, inserted] = await Promise.all([before, committed]);
+          // A batch given up (only while stopping) leaves everything after it unacknowledged: the broker resends.
+          if (!inOrder || inserted === null) return false;
+          this.afterCommit(batch, inserted);
+          return true;
+        })();
+        previous = settled;
+        const tracked: Promise<void> = settled.then(() => { inFlight.delete(tracked); });
+        inFlight.add(tracked);
+      }
+      if (inFlight.size === 0) return;
+      await Promise.race(inFlight);
     }
+  }
+
+  /** In take order: PUBACKs, then the live push and alarm evaluation, then room for the intake. */
+  private afterCommit(batch: QueueItem[], inserted: ConvertedReading[]): void {
+    const sendAcks = this.o.sendAcks ?? ((send: () => void) => send());
+    sendAcks(() => {
+      for (const item of batch) item.ack();
+    });
+    try {
+      this.o.onCommitted(inserted);
+    } catch (err) {
+      // Committed is committed: a failing live push must not turn into a retry (and duplicates).
+      this.o.log.warn({ err: (err as Error).message }, 'live publish failed');
+    }
+    while (this.hasRoom() && this.roomWaiters.length > 0) this.roomWaiters.shift()!();
   }
 
   /** Oldest first, up to maxReadings (always at least one message); stale ones are dropped: the broker resends them. */
@@ -117,19 +162,20 @@ export class Flusher {
     return batch;
   }
 
-  private async commitWithRetry(initial: QueueItem[]): Promise<boolean> {
+  /** The readings inserted, or null when given up (only while stopping). */
+  private async commitWithRetry(initial: QueueItem[]): Promise<ConvertedReading[] | null> {
     let batch = initial;
     for (let attempt = 0; ; attempt += 1) {
       if (attempt > 0) {
-        if (this.stopping) return false;
+        if (this.stopping) return null;
         batch = batch.filter((item) => !item.isStale());
-        if (batch.length === 0) return true;
+        if (batch.length === 0) return [];
       }
       try {
-        await this.commitOnce(batch);
+        const inserted = await this.commitOnce(batch);
         if (!this.o.metrics.dbUp) this.o.log.info({ attempts: attempt + 1 }, 'database back, flush committed');
         this.o.metrics.dbUp = true;
-        return true;
+        return inserted;
       } catch (err) {
         this.o.metrics.flushErrors += 1;
         this.o.metrics.dbUp = false;
@@ -138,15 +184,19 @@ export class Flusher {
         this.o.log[attempt === 0 ? 'warn' : 'debug']({ err: e.message, code: e.code, attempt, delayMs: Math.round(delayMs), messages: batch.length },
           'flush failed, nothing acknowledged; retrying');
         await new Promise<void>((resolve) => {
-          const t = setTimeout(resolve, delayMs);
-          this.wake = () => { clearTimeout(t); resolve(); };
+          const wake = () => {
+            clearTimeout(t);
+            this.wakers.delete(wake);
+            resolve();
+          };
+          const t = setTimeout(wake, delayMs);
+          this.wakers.add(wake);
         });
-        this.wake = null;
       }
     }
   }
 
-  private async commitOnce(batch: QueueItem[]): Promise<void> {
+  private async commitOnce(batch: QueueItem[]): Promise<ConvertedReading[]> {
     const started = performance.now();
     // Unknown probes may just be new: reload before refusing them (throws while the DB is down).
     await this.o.cache.ensure(batch.flatMap((item) => item.decoded.readings.map((r) => r.probeTag)));
@@ -157,11 +207,12 @@ export class Flusher {
       readings.push(...res.readings);
       for (const r of res.rejections) letters.push({ topic: item.topic, payload: r.payload, reason: r.reason, receivedAtMs: item.receivedAtMs });
     }
-    const result = await inTransaction(this.o.pool, async (conn) => {
-      const stored = await storeReadings(conn, readings, 'mqtt');
-      await insertDeadLetters(conn, letters);
+    const store: StoreFlush = this.o.store ?? ((rs, ls) => inTransaction(this.o.pool, async (conn) => {
+      const stored = await storeReadings(conn, rs, 'mqtt');
+      await insertDeadLetters(conn, ls);
       return stored;
-    });
+    }));
+    const result = await store(readings, letters);
     const m = this.o.metrics;
     m.readingsStored += result.stored;
     m.duplicates += result.duplicates;
@@ -171,11 +222,6 @@ export class Flusher {
     m.recordFlush(performance.now() - started, batch.map((item) => item.receivedAtMs), newest);
     if (letters.length > 0) this.o.log.info({ count: letters.length, first: letters[0].reason }, 'dead-lettered');
     if (result.conflicts > 0) this.o.log.warn({ count: result.conflicts }, 'conflicting duplicates logged');
-    try {
-      this.o.onCommitted(result.inserted);
-    } catch (err) {
-      // Committed is committed: a failing live push must not turn into a retry (and duplicates).
-      this.o.log.warn({ err: (err as Error).message }, 'live publish failed');
-    }
+    return result.inserted;
   }
 }

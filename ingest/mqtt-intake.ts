@@ -39,7 +39,15 @@ type PubackSender = { _sendPacket(packet: { cmd: 'puback'; messageId: number }, 
  * Either way a PUBACK is only ever written on the connection the message came in on: a stale
  * one could ack a different message after a reconnect.
  */
-export function startIntake(o: IntakeOptions): { client: MqttClient; subscribed: Promise<void>; stopTaking: () => void } {
+export type Intake = {
+  client: MqttClient;
+  subscribed: Promise<void>;
+  stopTaking: () => void;
+  /** Runs `send` (a flush's PUBACKs) with the socket corked, so they leave in one write. */
+  corked: (send: () => void) => void;
+};
+
+export function startIntake(o: IntakeOptions): Intake {
   const client = mqtt.connect(o.mqttUrl, {
     clientId: o.clientId, username: o.username, password: o.password,
     protocolVersion: 4, clean: false, keepalive: 30, reconnectPeriod: 1_000, connectTimeout: 10_000,
@@ -93,5 +101,16 @@ export function startIntake(o: IntakeOptions): { client: MqttClient; subscribed:
     void o.flusher.waitForRoom().then(() => done(NO_AUTO_ACK));
   };
 
-  return { client, subscribed, stopTaking: () => { stopping = true; } };
+  const corked = (send: () => void) => {
+    const stream = client.stream;
+    if (!stream || typeof stream.cork !== 'function') return send();
+    stream.cork();
+    try {
+      send();
+    } finally {
+      stream.uncork();
+    }
+  };
+
+  return { client, subscribed, stopTaking: () => { stopping = true; }, corked };
 }

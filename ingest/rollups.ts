@@ -136,14 +136,15 @@ export async function addToRollups(conn: PoolConnection, points: RollupPoint[]):
   if (points.length === 0) return;
   const CHUNK = 1000;
   for (const [table, bucketMs] of [['rollups_1m', MINUTE_MS], ['rollups_1h', HOUR_MS]] as const) {
-    const parts = aggregateBuckets(points, bucketMs);
+    // One lock order for every flush (probe, then bucket), so concurrent flushes wait rather than deadlock.
+    const parts = aggregateBuckets(points, bucketMs).sort((x, y) => x.probeId - y.probeId || x.bucketMs - y.bucketMs);
     for (let i = 0; i < parts.length; i += CHUNK) {
       const rows = parts.slice(i, i + CHUNK);
       const params = rows.flatMap((a) => [
         a.probeId, toSqlTs(a.bucketMs), a.n, a.orpMin, a.orpMax, a.orpSum / a.n, a.ehMin, a.ehMax, a.ehSum / a.n,
         a.tempMin, a.tempMax, a.tempSum / a.n, a.logSum / a.n, a.logMin, a.logMax,
       ]);
-      await conn.query(`INSERT INTO ${table} (${COLUMNS}) VALUES ${placeholders(rows.length, 15)} ON DUPLICATE KEY UPDATE ${MERGE}`, params);
+      await conn.execute(`INSERT INTO ${table} (${COLUMNS}) VALUES ${placeholders(rows.length, 15)} ON DUPLICATE KEY UPDATE ${MERGE}`, params);
     }
   }
 }

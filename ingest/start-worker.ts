@@ -8,7 +8,7 @@ import { createIngestPool } from './db.ts';
 import { Flusher } from './flusher.ts';
 import { LivePublisher, toTankLive } from './live.ts';
 import { IngestMetrics } from './metrics.ts';
-import { INVALIDATE_TOPIC, startIntake, type AckMode } from './mqtt-intake.ts';
+import { INVALIDATE_TOPIC, startIntake, type AckMode, type Intake } from './mqtt-intake.ts';
 import { ProbeCache } from './probe-cache.ts';
 import { deleteExpiredReadings } from './retention.ts';
 import { Lease } from '../api/src/cluster/lease.ts';
@@ -28,6 +28,8 @@ export type WorkerOptions = {
   lingerMs?: number;
   maxReadingsPerFlush?: number;
   maxQueuedReadings?: number;
+  /** Flush transactions committing at once (pipelined mode only). */
+  flushConcurrency?: number;
   cacheRefreshMs?: number;
   healthIntervalMs?: number;
   retentionIntervalMs?: number;
@@ -52,7 +54,7 @@ export type RunningWorker = {
 export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const log = opts.log ?? rootLogger.child({ component: 'ingest-worker' });
   const retentionDays = opts.retentionDays ?? 90;
-  const pool = createIngestPool(opts.databaseUrl, 3);
+  const pool = createIngestPool(opts.databaseUrl, 4);
   const metrics = new IngestMetrics();
   const cache = new ProbeCache(pool);
   await cache.reload().catch((err: Error) => log.warn({ err: err.message }, 'probe cache not loaded yet; will retry'));
@@ -61,12 +63,15 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const alarms = queueAlarmReadings(createAlarmEngine({ sequelize: alarmDb }), log);
 
   let live: LivePublisher | null = null;
+  let corked: Intake['corked'] | null = null;
   const flusher = new Flusher({
     pool, cache, metrics, log, retentionDays,
     // In serial mode nothing else can arrive on the connection while a message waits: never linger.
     lingerMs: opts.ackMode === 'serial' ? 0 : opts.lingerMs ?? 25,
     maxReadings: opts.maxReadingsPerFlush ?? 2000,
     maxQueuedReadings: opts.maxQueuedReadings ?? 20_000,
+    maxInFlight: opts.ackMode === 'serial' ? 1 : opts.flushConcurrency ?? 2,
+    sendAcks: (send) => (corked ? corked(send) : send()),
     onCommitted: (inserted) => {
       live?.publish(inserted);
       alarms.push(inserted.map(toTankLive));
@@ -87,6 +92,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const refresh = () => Promise.all([reloadCache(), slices?.sync()]);
   const retentionLease = plan ? new Lease(pool, 'ingest-retention', { ttlMs: opts.leaseTtlMs, log }).start() : null;
   live = new LivePublisher(intake.client);
+  corked = intake.corked;
 
   const health = () => {
     const snap = metrics.snapshot({ queued: flusher.queued, mqttConnected: intake.client.connected });

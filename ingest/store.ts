@@ -44,12 +44,36 @@ async function lockExisting(conn: PoolConnection, keys: { probeId: number; ts: s
   return found;
 }
 
+const ER_DUP_ENTRY = 1062;
+
+/**
+ * Plain multi-row INSERT of readings (never IGNORE): a key that exists fails the whole statement.
+ * A prepared statement (binary protocol): the server parses the SQL once per row count and no
+ * value is escaped into text, about a third faster than a text query of the same rows.
+ */
+async function insertRows(conn: PoolConnection, rows: { r: ConvertedReading; ts: string }[]): Promise<void> {
+  let receivedMs = NaN;
+  let received = '';
+  const params = rows.flatMap(({ r, ts }) => {
+    // Readings of one message share their receipt time: format it once.
+    if (r.receivedAtMs !== receivedMs) [receivedMs, received] = [r.receivedAtMs, toSqlTs(r.receivedAtMs)];
+    return [r.probeId, ts, r.seq, r.orpMv, r.tempC, r.ehV, r.ratio, r.ferricFraction, r.flag, r.calibrationVersion, received];
+  });
+  await conn.execute(
+    `INSERT INTO readings (probe_id, ts, seq, orp_mv, temp_c, eh_v, ratio, ferric_fraction, flag, calibration_version, received_at)
+     VALUES ${placeholders(rows.length, 11)}`, params);
+}
+
 /**
  * Idempotent store of converted readings, inside the caller's transaction (one per flush).
  * Primary key (probe_id, ts): an exact duplicate is ignored; a different value for an existing
- * key is written to reading_conflicts and the first stored value kept. Never INSERT IGNORE:
- * the insert is a plain INSERT of keys just proven absent under lock, so any surprise is a
- * loud error that rolls the flush back (and it is retried), never a silent skip.
+ * key is written to reading_conflicts and the first stored value kept.
+ *
+ * Most chunks hold only new keys, so each chunk of distinct keys is first written with one
+ * plain INSERT. When a key already exists the statement fails with a duplicate-key error and
+ * InnoDB rolls that statement back as a whole (the transaction goes on); that chunk is then
+ * sorted under lock (lockExisting) and only its absent keys inserted. Never INSERT IGNORE:
+ * any other surprise is a loud error that rolls the flush back (and it is retried).
  * The new rows are added to their 1 m and 1 h rollups in the same transaction.
  * @param source who sent the readings, recorded on conflicts (e.g. 'mqtt', 'import:file.csv')
  */
@@ -64,30 +88,38 @@ export async function storeReadings(conn: PoolConnection, readings: ConvertedRea
     if (firsts.has(key)) repeats.push({ r, key });
     else firsts.set(key, { r, ts });
   }
-  const existing = await lockExisting(conn, [...firsts.values()].map(({ r, ts }) => ({ probeId: r.probeId, ts })));
   const conflicts: { r: ConvertedReading; ts: string; stored: Stored }[] = [];
   const judge = (r: ConvertedReading, ts: string, stored: Stored) => {
     if (stored.orpMv === r.orpMv && stored.tempC === r.tempC) result.duplicates += 1;
     else conflicts.push({ r, ts, stored });
   };
-  for (const [key, { r, ts }] of firsts) {
-    const stored = existing.get(key);
-    if (stored) judge(r, ts, stored);
-    else result.inserted.push(r);
+  /** Rows that were stored before this flush, for the keys of chunks that had any. */
+  const existing = new Map<string, Stored>();
+  const distinct = [...firsts.values()];
+  for (let i = 0; i < distinct.length; i += CHUNK) {
+    const chunk = distinct.slice(i, i + CHUNK);
+    try {
+      await insertRows(conn, chunk);
+      for (const { r } of chunk) result.inserted.push(r);
+      continue;
+    } catch (err) {
+      if ((err as { errno?: number }).errno !== ER_DUP_ENTRY) throw err;
+    }
+    const found = await lockExisting(conn, chunk.map(({ r, ts }) => ({ probeId: r.probeId, ts })));
+    const fresh: typeof chunk = [];
+    for (const item of chunk) {
+      const stored = found.get(keyOf(item.r.probeId, item.ts));
+      if (stored) {
+        existing.set(keyOf(item.r.probeId, item.ts), stored);
+        judge(item.r, item.ts, stored);
+      } else fresh.push(item);
+    }
+    if (fresh.length > 0) await insertRows(conn, fresh);
+    for (const { r } of fresh) result.inserted.push(r);
   }
   for (const { r, key } of repeats) {
     const first = firsts.get(key)!;
     judge(r, first.ts, existing.get(key) ?? { orpMv: first.r.orpMv, tempC: first.r.tempC });
-  }
-  for (let i = 0; i < result.inserted.length; i += CHUNK) {
-    const rows = result.inserted.slice(i, i + CHUNK);
-    const params = rows.flatMap((r) => [
-      r.probeId, toSqlTs(r.tsMs), r.seq, r.orpMv, r.tempC, r.ehV, r.ratio, r.ferricFraction, r.flag,
-      r.calibrationVersion, toSqlTs(r.receivedAtMs),
-    ]);
-    await conn.query(
-      `INSERT INTO readings (probe_id, ts, seq, orp_mv, temp_c, eh_v, ratio, ferric_fraction, flag, calibration_version, received_at)
-       VALUES ${placeholders(rows.length, 11)}`, params);
   }
   for (let i = 0; i < conflicts.length; i += CHUNK) {
     const rows = conflicts.slice(i, i + CHUNK);

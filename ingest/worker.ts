@@ -29,6 +29,7 @@ async function main(): Promise<void> {
     ackMode: cfg.INGEST_ACK_MODE,
     lingerMs: cfg.INGEST_FLUSH_MS,
     maxReadingsPerFlush: cfg.INGEST_FLUSH_MAX_READINGS,
+    flushConcurrency: cfg.INGEST_FLUSH_CONCURRENCY,
     log,
   });
   log.info({ clientId, filter: cfg.INGEST_TOPIC_FILTER, slice: cfg.INGEST_SLICE, ackMode: cfg.INGEST_ACK_MODE }, 'ingest worker started');

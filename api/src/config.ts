@@ -30,6 +30,7 @@ const schema = z.object({
   INGEST_ACK_MODE: z.enum(['pipelined', 'serial']).default('pipelined'),
   INGEST_FLUSH_MS: z.coerce.number().int().min(1).max(1000).default(25),
   INGEST_FLUSH_MAX_READINGS: z.coerce.number().int().min(1).max(20_000).default(2000),
+  INGEST_FLUSH_CONCURRENCY: z.coerce.number().int().min(1).max(8).default(2),
   // Scale-out (README "Scaling out"; ingest/slices.ts, api/src/cluster/).
   /** 'i/n': this ingest worker's slice of the device topics; unset = one worker takes everything. */
   INGEST_SLICE: z.string().regex(/^\d+\/\d+$/, 'must be i/n, e.g. 1/2').optional(),

@@ -7,7 +7,7 @@ import { logger } from '../lib/logger.ts';
 import { EVENT_SELECT, toEventView, type EventRow } from '../modules/alarms/views.ts';
 
 /**
- * Alarm events to browsers. The table is the feed: every ~250 ms the API reads alarm_events
+ * Alarm events to browsers. The table is the feed: every ~100 ms the API reads alarm_events
  * with id > last and emits `alarm:event` to the site's room; this works whichever process wrote
  * the event (ingest, notifier, another API node). Event ids commit in order (see the alarms
  * migration), so "id > last" never skips one.
@@ -21,7 +21,7 @@ import { EVENT_SELECT, toEventView, type EventRow } from '../modules/alarms/view
  * successor resumes from the holder's saved position. Replays stay per node, from the table.
  */
 export const REPLAY_MAX = 2000;
-const POLL_MS = 250;
+const POLL_MS = 100;
 const REPLAY_INTERVAL_MS = 1000;
 
 export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs?: number; lease?: Lease } = {}) {
