@@ -53,9 +53,16 @@ export async function insertCeiling(pool: Pool, rows: number): Promise<number> {
   return rows / ((performance.now() - t0) / 1000);
 }
 
-/** The same load through a broker with nothing but a do-nothing QoS 1 subscriber: readings/s (batch) or msg/s (single). */
-export async function passThrough(load: Load, port: number, o: Omit<LoadOptions, keyof Load>): Promise<number> {
-  const sub = await mqtt.connectAsync(`mqtt://127.0.0.1:${port}`, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: `ferrisight-pt-${Date.now()}`, protocolVersion: 4, reconnectPeriod: 0 });
+/**
+ * The same load through a broker with nothing but a do-nothing QoS 1 subscriber: readings/s
+ * (batch) or msg/s (single). `persistent`: the subscriber keeps a clean: false session, as the
+ * ingest worker must (its unacknowledged messages survive a crash), so the broker stores every
+ * in-flight message; with false it is a clean session, which the broker keeps in memory only.
+ */
+export async function passThrough(load: Load, port: number, o: Omit<LoadOptions, keyof Load>, persistent: boolean): Promise<number> {
+  const sub = await mqtt.connectAsync(`mqtt://127.0.0.1:${port}`, {
+    username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: `ferrisight-pt-${Date.now()}`, protocolVersion: 4, reconnectPeriod: 0, clean: !persistent,
+  });
   let received = 0;
   sub.on('message', () => { received += 1; });
   await sub.subscribeAsync('ferrisight/v1/#', { qos: 1 });
