@@ -70,6 +70,8 @@ export async function passThrough(load: Load, port: number, o: Omit<LoadOptions,
   const r = await runLoad({ ...load, ...o });
   while (received < r.sentMessages) await sleep(20);
   const s = (Date.now() - t0) / 1000;
+  // A clean: false session outlives the connection: drop its subscription, or the next run would also feed it.
+  if (persistent) await sub.unsubscribeAsync('ferrisight/v1/#');
   await sub.endAsync();
   return (o.batch > 1 ? r.sentReadings : r.sentMessages) / s;
 }
@@ -114,8 +116,10 @@ export async function measureLatency(o: {
   socket.on('tank:latest', (readings: TankLive[]) => {
     const at = Date.now();
     for (const r of readings) {
+      // Only readings of this phase: the API also sends each tank's last value when a client joins.
       const c = committedAt.get(`${r.probeTag}|${r.ts}`);
-      if (c !== undefined) toSocket.push(at - c);
+      if (c === undefined) continue;
+      toSocket.push(at - c);
       total.push(at - Date.parse(r.ts));
     }
   });

@@ -5,27 +5,17 @@
  * An operator watches the Floor, a supervisor acknowledges on the Alarm desk, both screens change.
  * npm test's last stage (scripts/run-e2e.ts, or `npm run test:e2e`) starts such an app and sets both.
  */
-import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-
-const BASE_URL = process.env.E2E_BASE_URL;
-const PASSWORD = process.env.E2E_PASSWORD;
-const SHOTS = path.resolve('test-results');
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-sync'];
-const url = (p: string) => new URL(p, BASE_URL).href;
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { appUrl, BASE_URL, launchBrowser, SHOTS, signIn } from '../helpers/browser.ts';
 
 async function signedIn(browser: Browser, role: string): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
   const context = await browser.newContext({ viewport: { width: 1920, height: 1080 } });
   const page = await context.newPage();
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
-  await page.goto(url('/sign-in'));
-  await page.getByLabel('E-mail').fill(`${role}@kestrel.example`);
-  await page.getByLabel('Password').fill(PASSWORD!);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'), { timeout: 15_000 });
+  await signIn(page, role);
   return { context, page, errors };
 }
 
@@ -42,9 +32,7 @@ const UPSET_TO_BELOW_BAND_S = 45;
 describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser', () => {
   let browser: Browser;
   beforeAll(async () => {
-    if (!PASSWORD) throw new Error("E2E_PASSWORD must be set to the demo users' password");
-    fs.mkdirSync(SHOTS, { recursive: true });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    browser = await launchBrowser();
   });
   afterAll(async () => browser?.close());
 
@@ -53,20 +41,20 @@ describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser'
     const operator = await signedIn(browser, 'operator');
     const supervisor = await signedIn(browser, 'supervisor');
     const headers = { 'X-Ferrisight-Csrf': '1' };
-    const active = async () => ((await (await admin.page.request.get(url('/api/alarms/active'))).json()) as { alarms: Alarm[] }).alarms;
+    const active = async () => ((await (await admin.page.request.get(appUrl('/api/alarms/active'))).json()) as { alarms: Alarm[] }).alarms;
     // A tank of Train A without an open ratio alarm, so the alarm seen is the one this test raises.
     const busy = new Set((await active()).filter((a) => a.kind === 'ratio-below-band').map((a) => a.tankTag));
     const tag = ['A1', 'A2', 'A3', 'A4', 'A5', 'A6'].find((t) => !busy.has(t));
     expect(tag).toBeDefined();
     // Its P1 alarm rises once the ratio has stayed below the band low for the definition's on-delay.
-    const definitions = ((await (await admin.page.request.get(url('/api/alarms/definitions'))).json()) as { definitions: Definition[] }).definitions;
+    const definitions = ((await (await admin.page.request.get(appUrl('/api/alarms/definitions'))).json()) as { definitions: Definition[] }).definitions;
     const belowBand = definitions.find((d) => d.tankTag === tag && d.kind === 'ratio-below-band');
     expect(belowBand).toMatchObject({ priority: 1, limit: 8 });
     const expectedS = UPSET_TO_BELOW_BAND_S + belowBand!.onDelayS;
     const fault = { fault: 'feed-upset', probeTag: `${tag}-ORP` };
-    expect((await admin.page.request.post(url('/api/admin/simulator'), { headers, data: { ...fault, action: 'start' } })).status()).toBe(202);
+    expect((await admin.page.request.post(appUrl('/api/admin/simulator'), { headers, data: { ...fault, action: 'start' } })).status()).toBe(202);
     try {
-      await operator.page.goto(url('/'));
+      await operator.page.goto(appUrl('/'));
       const pill = operator.page.locator(`[data-testid="tank-tile"][data-tag="${tag}"] [data-testid="tile-alarm"][data-priority="1"]`);
       // Three times the expected time: the machine running the tests may be busy.
       await pill.waitFor({ timeout: 3 * expectedS * 1000 });
@@ -74,7 +62,7 @@ describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser'
       await operator.page.screenshot({ path: path.join(SHOTS, 'alarm-floor-new.png') });
 
       const alarm = (await active()).find((a) => a.tankTag === tag && a.kind === 'ratio-below-band')!;
-      await supervisor.page.goto(url(`/alarm-desk?tank=${alarm.tankId}`));
+      await supervisor.page.goto(appUrl(`/alarm-desk?tank=${alarm.tankId}`));
       const row = supervisor.page.locator(`[data-testid="alarm-row"][data-alarm-id="${alarm.id}"]`);
       await row.getByRole('button', { name: /^Acknowledge/ }).click();
       await row.locator('[data-testid="alarm-state"][data-state="acknowledged"]').waitFor({ timeout: 20_000 });
@@ -84,7 +72,7 @@ describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser'
       await operator.page.screenshot({ path: path.join(SHOTS, 'alarm-floor-acknowledged.png') });
       expect([...admin.errors, ...operator.errors, ...supervisor.errors]).toEqual([]);
     } finally {
-      await admin.page.request.post(url('/api/admin/simulator'), { headers, data: { ...fault, action: 'clear' } });
+      await admin.page.request.post(appUrl('/api/admin/simulator'), { headers, data: { ...fault, action: 'clear' } });
       for (const s of [admin, operator, supervisor]) await s.context.close();
     }
   }, 360_000);

@@ -8,20 +8,8 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type Page } from 'playwright-core';
-
-const BASE_URL = process.env.E2E_BASE_URL;
-const PASSWORD = process.env.E2E_PASSWORD;
-const SHOTS = path.resolve('test-results');
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-sync'];
-
-async function signIn(page: Page, role: string): Promise<void> {
-  await page.goto(new URL('/sign-in', BASE_URL).href);
-  await page.getByLabel('E-mail').fill(`${role}@kestrel.example`);
-  await page.getByLabel('Password').fill(PASSWORD!);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15_000 });
-}
+import type { Browser } from 'playwright-core';
+import { appUrl, BASE_URL, launchBrowser, SHOTS, signIn } from '../helpers/browser.ts';
 
 /** Pages in a PDF: one "/Type /Page" object each (not /Pages). */
 const pdfPages = (pdf: Buffer) => (pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
@@ -29,9 +17,7 @@ const pdfPages = (pdf: Buffer) => (pdf.toString('latin1').match(/\/Type\s*\/Page
 describe.skipIf(!BASE_URL)('Shift log, Shift digest and import in a browser', () => {
   let browser: Browser;
   beforeAll(async () => {
-    if (!PASSWORD) throw new Error("E2E_PASSWORD must be set to the demo users' password");
-    fs.mkdirSync(SHOTS, { recursive: true });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    browser = await launchBrowser();
   });
   afterAll(async () => browser?.close());
 
@@ -41,7 +27,7 @@ describe.skipIf(!BASE_URL)('Shift log, Shift digest and import in a browser', ()
     page.on('pageerror', (e) => errors.push(e.message));
     await signIn(page, 'supervisor');
 
-    await page.goto(new URL('/shift-log', BASE_URL).href);
+    await page.goto(appUrl('/shift-log'));
     const text = `E2E check ${Date.now()}: A1 froth steady`;
     await page.getByRole('textbox', { name: 'Entry' }).fill(text);
     await page.getByRole('button', { name: 'Add entry' }).click();
@@ -50,7 +36,7 @@ describe.skipIf(!BASE_URL)('Shift log, Shift digest and import in a browser', ()
 
     const to = new Date();
     const from = new Date(to.getTime() - 2 * 86_400_000);
-    await page.goto(new URL(`/shift-digest?from=${from.toISOString()}&to=${to.toISOString()}`, BASE_URL).href);
+    await page.goto(appUrl(`/shift-digest?from=${from.toISOString()}&to=${to.toISOString()}`));
     await page.waitForSelector('[data-testid="tib-bar"]', { timeout: 20_000 });
     expect(await page.locator('[data-testid="tib-bar"]').count()).toBeGreaterThan(0);
     expect(await page.locator('[data-testid="shift-digest"]').getByText(text).count()).toBe(1);
@@ -83,7 +69,7 @@ describe.skipIf(!BASE_URL)('Shift log, Shift digest and import in a browser', ()
   it('when a metallurgist imports a small file, then the summary reports what was stored', async () => {
     const page = await (await browser.newContext({ viewport: { width: 1366, height: 900 } })).newPage();
     await signIn(page, 'metallurgist');
-    await page.goto(new URL('/readings', BASE_URL).href);
+    await page.goto(appUrl('/readings'));
     const t0 = Math.floor((Date.now() - 2 * 86_400_000) / 1000) * 1000;
     const lines = ['probe,time,orp_mv,temp_c', ...[0, 1, 2].map((i) => `A1-ORP,${new Date(t0 + i * 1000 + 37).toISOString()},455.5,42`), 'NOPE,2026-01-01T00:00:00Z,1,1'];
     const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'fs-e2e-')), 'e2e-import.csv');

@@ -4,34 +4,12 @@
  * Skipped when E2E_BASE_URL is not set; the demo users' password comes from E2E_PASSWORD.
  * npm test's last stage (scripts/run-e2e.ts, or `npm run test:e2e`) starts such an app and sets both.
  */
-import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
+import { BASE_URL, launchBrowser, SHOTS, signIn } from '../helpers/browser.ts';
 
-const BASE_URL = process.env.E2E_BASE_URL;
-const PASSWORD = process.env.E2E_PASSWORD;
 const ROLES = ['operator', 'supervisor', 'metallurgist', 'engineer', 'admin'] as const;
-const SHOTS = path.resolve('test-results');
-
-const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
-
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(new URL('/sign-in', BASE_URL).href);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD!);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15_000 });
-}
 
 /** Newest reading time of every tile, by tank tag. */
 async function tileTimestamps(page: Page): Promise<Record<string, string>> {
@@ -59,9 +37,7 @@ describe.skipIf(!BASE_URL)('Floor and Tank page in a browser', () => {
   let browser: Browser;
 
   beforeAll(async () => {
-    if (!PASSWORD) throw new Error('E2E_PASSWORD must be set to the demo users\' password');
-    fs.mkdirSync(SHOTS, { recursive: true });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    browser = await launchBrowser();
   });
 
   afterAll(async () => {
@@ -75,7 +51,7 @@ describe.skipIf(!BASE_URL)('Floor and Tank page in a browser', () => {
       const pageErrors: string[] = [];
       page.on('pageerror', (e) => pageErrors.push(e.message));
       try {
-        await signIn(page, `${role}@kestrel.example`);
+        await signIn(page, role);
 
         // The Floor: both demo circuits, ten tiles, the live connection up.
         await page.waitForSelector('[data-testid="tank-tile"]', { timeout: 15_000 });

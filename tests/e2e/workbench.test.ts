@@ -5,23 +5,10 @@
  * Screenshots land in test-results/.
  * npm test's last stage (scripts/run-e2e.ts, or `npm run test:e2e`) starts such an app and sets both.
  */
-import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type Page } from 'playwright-core';
-
-const BASE_URL = process.env.E2E_BASE_URL;
-const PASSWORD = process.env.E2E_PASSWORD;
-const SHOTS = path.resolve('test-results');
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-sync'];
-
-async function signIn(page: Page, role: string): Promise<void> {
-  await page.goto(new URL('/sign-in', BASE_URL).href);
-  await page.getByLabel('E-mail').fill(`${role}@kestrel.example`);
-  await page.getByLabel('Password').fill(PASSWORD!);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15_000 });
-}
+import type { Browser } from 'playwright-core';
+import { appUrl, BASE_URL, launchBrowser, SHOTS, signIn } from '../helpers/browser.ts';
 
 /** Three A1 assays a few minutes old (seconds make each run unique); row 4 optionally wrong. */
 function labFile(badRow: boolean): Buffer {
@@ -38,9 +25,7 @@ function labFile(badRow: boolean): Buffer {
 describe.skipIf(!BASE_URL)('Assays and Calibration in a browser', () => {
   let browser: Browser;
   beforeAll(async () => {
-    if (!PASSWORD) throw new Error("E2E_PASSWORD must be set to the demo users' password");
-    fs.mkdirSync(SHOTS, { recursive: true });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    browser = await launchBrowser();
   });
   afterAll(async () => browser?.close());
 
@@ -50,7 +35,7 @@ describe.skipIf(!BASE_URL)('Assays and Calibration in a browser', () => {
     page.on('pageerror', (e) => errors.push(e.message));
     await signIn(page, 'metallurgist');
 
-    await page.goto(new URL('/assays', BASE_URL).href);
+    await page.goto(appUrl('/assays'));
     const fileInput = page.getByLabel('CSV file');
     await fileInput.setInputFiles({ name: 'lab-e2e.csv', mimeType: 'text/csv', buffer: labFile(true) });
     const rowError = page.getByTestId('csv-error');
@@ -67,7 +52,7 @@ describe.skipIf(!BASE_URL)('Assays and Calibration in a browser', () => {
     await page.getByRole('button', { name: 'Store all 3 rows' }).click();
     await page.getByText('3 assays stored from lab-e2e.csv').waitFor({ timeout: 15_000 });
 
-    await page.goto(new URL('/calibration', BASE_URL).href);
+    await page.goto(appUrl('/calibration'));
     await page.getByRole('combobox', { name: 'Tank' }).selectOption({ label: 'A1 · Bioleach 1' });
     const fit = page.getByRole('button', { name: 'Fit E°′' });
     await expect.poll(() => fit.isEnabled(), { timeout: 15_000 }).toBe(true);
