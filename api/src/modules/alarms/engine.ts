@@ -132,26 +132,26 @@ export function createAlarmEngine(opts: { sequelize: Sequelize; now?: () => Date
   return {
     async onReadings(readings) {
       if (readings.length === 0) return;
-      const sorted = [...readings].sort((a, b) => Date.parse(a.ts) - Date.parse(b.ts));
-      const byTank = new Map<number, TankLive[]>();
-      for (const r of sorted) {
-        const list = byTank.get(r.tankId);
-        if (list) list.push(r);
-        else byTank.set(r.tankId, [r]);
-        lastSeenMs.set(r.probeId, Math.max(lastSeenMs.get(r.probeId) ?? 0, Date.parse(r.ts)));
+      // Sample time parsed once per reading (the ingest worker hands over thousands per flush).
+      const sorted = readings.map((r) => ({ r, tMs: Date.parse(r.ts) })).sort((a, b) => a.tMs - b.tMs);
+      const byTank = new Map<number, { r: TankLive; tMs: number }[]>();
+      for (const item of sorted) {
+        const list = byTank.get(item.r.tankId);
+        if (list) list.push(item);
+        else byTank.set(item.r.tankId, [item]);
+        lastSeenMs.set(item.r.probeId, Math.max(lastSeenMs.get(item.r.probeId) ?? 0, item.tMs));
       }
       const defs = await definitionsForTanks(sequelize, [...byTank.keys()], READING_KINDS);
       for (const def of defs.filter((d) => d.windowS && KIND_INFO[d.kind].windowed)) {
-        for (const probeId of new Set(byTank.get(def.tankId)!.map((r) => r.probeId))) {
+        for (const probeId of new Set(byTank.get(def.tankId)!.map(({ r }) => r.probeId))) {
           await windows.ensure(probeId, now().getTime(), def.windowS! * 1000 + 60_000);
         }
       }
-      for (const r of sorted) windows.push(r.probeId, { tMs: Date.parse(r.ts), orpMv: r.orpMv });
+      for (const { r, tMs } of sorted) windows.push(r.probeId, { tMs, orpMv: r.orpMv });
       for (const def of defs) {
         await guarded(`definition ${def.id}`, async () => {
           if (await skipOffline(def)) return;
-          for (const r of byTank.get(def.tankId)!) {
-            const tMs = Date.parse(r.ts);
+          for (const { r, tMs } of byTank.get(def.tankId)!) {
             if (tMs <= (lastEvaluatedMs.get(def.id) ?? -Infinity)) continue;
             lastEvaluatedMs.set(def.id, tMs);
             await evaluate(def, readingValue(def, r, tMs), tMs);
