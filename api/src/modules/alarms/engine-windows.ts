@@ -25,13 +25,19 @@ export class SampleWindows {
     for (const s of [...history, ...current].sort((a, b) => a.tMs - b.tMs)) this.push(probeId, s);
   }
 
-  /** Appends in time order; older or too-close samples are dropped (redeliveries, bursts). */
-  push(probeId: number, s: Sample): void {
+  /**
+   * Appends in time order; older or too-close samples are dropped (redeliveries, bursts), and
+   * samples older than `keepMs` (the probe's longest window plus a margin) are let go.
+   */
+  push(probeId: number, s: Sample, keepMs = MAX_KEEP_MS): void {
     const list = this.byProbe.get(probeId) ?? [];
     const last = list[list.length - 1];
     if (last && s.tMs < last.tMs + MIN_SPACING_MS) return;
     list.push(s);
-    while (list.length > 0 && list[0].tMs < s.tMs - MAX_KEEP_MS) list.shift();
+    const oldest = s.tMs - Math.min(keepMs, MAX_KEEP_MS);
+    let drop = 0;
+    while (drop < list.length && list[drop].tMs < oldest) drop += 1;
+    if (drop > 0) list.splice(0, drop);
     this.byProbe.set(probeId, list);
   }
 

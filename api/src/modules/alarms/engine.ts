@@ -142,12 +142,19 @@ export function createAlarmEngine(opts: { sequelize: Sequelize; now?: () => Date
         lastSeenMs.set(item.r.probeId, Math.max(lastSeenMs.get(item.r.probeId) ?? 0, item.tMs));
       }
       const defs = await definitionsForTanks(sequelize, [...byTank.keys()], READING_KINDS);
+      // Sample windows only for probes with a windowed definition, each as long as its longest window needs.
+      const keepMs = new Map<number, number>();
       for (const def of defs.filter((d) => d.windowS && KIND_INFO[d.kind].windowed)) {
         for (const probeId of new Set(byTank.get(def.tankId)!.map(({ r }) => r.probeId))) {
-          await windows.ensure(probeId, now().getTime(), def.windowS! * 1000 + 60_000);
+          const keep = def.windowS! * 1000 + 60_000;
+          keepMs.set(probeId, Math.max(keepMs.get(probeId) ?? 0, keep));
+          await windows.ensure(probeId, now().getTime(), keep);
         }
       }
-      for (const { r, tMs } of sorted) windows.push(r.probeId, { tMs, orpMv: r.orpMv });
+      for (const { r, tMs } of sorted) {
+        const keep = keepMs.get(r.probeId);
+        if (keep !== undefined) windows.push(r.probeId, { tMs, orpMv: r.orpMv }, keep);
+      }
       for (const def of defs) {
         await guarded(`definition ${def.id}`, async () => {
           if (await skipOffline(def)) return;
