@@ -6,27 +6,17 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { batchTopic } from '../../shared/schemas/readings.ts';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
+import type { TestDatabase } from '../helpers/test-db.ts';
 import { compareStored, formatComparison, waitForCount } from './lib/compare.ts';
-import { killAll } from './lib/procs.ts';
-import { createRig, drive, type Rig } from './lib/rig.ts';
+import { drive, startLiveRig, stopLiveRig, type Rig } from './lib/rig.ts';
 
 let db: TestDatabase;
 let rig: Rig;
 
 beforeAll(async () => {
-  db = await createTestDatabase();
-  rig = await createRig({ databaseUrl: db.databaseUrl, probes: 20 });
-  await rig.startBroker();
-  rig.startWorker();
-  await rig.waitLive();
+  ({ db, rig } = await startLiveRig(20));
 });
-
-afterAll(async () => {
-  await killAll();
-  await rig?.close();
-  await db?.drop();
-});
+afterAll(() => stopLiveRig({ db, rig }));
 
 describe('duplicates and conflicts (G5)', () => {
   it('when 2,000 readings/s flow with no fault, then every one is stored within 5 s of its PUBACK, without any reconnect', async () => {

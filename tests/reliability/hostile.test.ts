@@ -9,12 +9,12 @@
 import mqtt from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MAX_PAYLOAD_BYTES, latestTopic, readingTopic } from '../../shared/schemas/readings.ts';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
+import type { TestDatabase } from '../helpers/test-db.ts';
 import { quantile } from '../../bench/lib/bench-db.ts';
 import { compareStored, deadLetterSummary, formatComparison, waitForCount } from './lib/compare.ts';
 import { hostilePayloads } from './lib/hostile.ts';
-import { SERVICE_PASSWORD, killAll, sleep } from './lib/procs.ts';
-import { createRig, drive, type Rig } from './lib/rig.ts';
+import { SERVICE_PASSWORD, sleep } from './lib/procs.ts';
+import { drive, startLiveRig, stopLiveRig, type Rig } from './lib/rig.ts';
 
 const LONG = process.env.FERRISIGHT_LONG === '1';
 const COUNT = 10_000;
@@ -23,18 +23,9 @@ let db: TestDatabase;
 let rig: Rig;
 
 beforeAll(async () => {
-  db = await createTestDatabase();
-  rig = await createRig({ databaseUrl: db.databaseUrl, probes: 20 });
-  await rig.startBroker();
-  rig.startWorker();
-  await rig.waitLive();
+  ({ db, rig } = await startLiveRig(20));
 });
-
-afterAll(async () => {
-  await killAll();
-  await rig?.close();
-  await db?.drop();
-});
+afterAll(() => stopLiveRig({ db, rig }));
 
 /** Single readings of RWARM every 50 ms; latency = its arrival on the live topic (published after commit) − publish time. */
 async function measureLatency(durationMs: number): Promise<number[]> {

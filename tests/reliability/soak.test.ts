@@ -8,10 +8,10 @@ import mqtt from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { latestTopic } from '../../shared/schemas/readings.ts';
 import { quantile } from '../../bench/lib/bench-db.ts';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
+import type { TestDatabase } from '../helpers/test-db.ts';
 import { compareStored, formatComparison, waitForCount } from './lib/compare.ts';
-import { SERVICE_PASSWORD, killAll, rssMiB } from './lib/procs.ts';
-import { createRig, drive, type Rig } from './lib/rig.ts';
+import { SERVICE_PASSWORD, rssMiB } from './lib/procs.ts';
+import { drive, startLiveRig, stopLiveRig, type Rig } from './lib/rig.ts';
 
 const LONG = process.env.FERRISIGHT_LONG === '1';
 const MINUTES = Number(process.env.SOAK_MINUTES ?? 30);
@@ -24,17 +24,9 @@ let rig: Rig;
 
 describe.skipIf(!LONG)('soak (G1)', () => {
   beforeAll(async () => {
-    db = await createTestDatabase();
-    rig = await createRig({ databaseUrl: db.databaseUrl, probes: PROBES });
-    await rig.startBroker();
-    rig.startWorker();
-    await rig.waitLive();
+    ({ db, rig } = await startLiveRig(PROBES));
   });
-  afterAll(async () => {
-    await killAll();
-    await rig?.close();
-    await db?.drop();
-  });
+  afterAll(() => stopLiveRig({ db, rig }));
 
   it(`when 2,000 readings/s flow for ${MINUTES} min, then nothing is lost, p99 publish→commit ≤ 1 s and RSS grows ≤ 10 %`, async () => {
     const durationMs = MINUTES * 60_000;

@@ -4,10 +4,10 @@
  * Short form: 3 kills over ~20 s. FERRISIGHT_LONG=1 (or npm run soak): 10 kills over ~2 min.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
+import type { TestDatabase } from '../helpers/test-db.ts';
 import { compareStored, formatComparison, rollupMismatches, waitForCount } from './lib/compare.ts';
-import { kill9, killAll } from './lib/procs.ts';
-import { createRig, drive, type Rig } from './lib/rig.ts';
+import { kill9 } from './lib/procs.ts';
+import { drive, startLiveRig, stopLiveRig, type Rig } from './lib/rig.ts';
 
 const LONG = process.env.FERRISIGHT_LONG === '1';
 const KILLS = LONG ? 10 : 3;
@@ -18,18 +18,9 @@ let db: TestDatabase;
 let rig: Rig;
 
 beforeAll(async () => {
-  db = await createTestDatabase();
-  rig = await createRig({ databaseUrl: db.databaseUrl, probes: 20 });
-  await rig.startBroker();
-  rig.startWorker();
-  await rig.waitLive();
+  ({ db, rig } = await startLiveRig(20));
 });
-
-afterAll(async () => {
-  await killAll();
-  await rig?.close();
-  await db?.drop();
-});
+afterAll(() => stopLiveRig({ db, rig }));
 
 async function storedCount(): Promise<number> {
   const ids = rig.probes.map((p) => p.id);

@@ -11,7 +11,8 @@ import { createIngestPool, type Pool } from '../../../ingest/db.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { readingTopic } from '../../../shared/schemas/readings.ts';
 import { addDevice, seedPlant } from '../../ingest/support.ts';
-import { startBrokerProcess, startWorkerProcess, sleep, type Child } from './procs.ts';
+import { createTestDatabase, type TestDatabase } from '../../helpers/test-db.ts';
+import { killAll, startBrokerProcess, startWorkerProcess, sleep, type Child } from './procs.ts';
 import { NumberedStream, type StreamMessage, type StreamProbe } from './stream.ts';
 
 export const DEVICE_PASSWORD = 'reliability-device-password';
@@ -164,4 +165,21 @@ export async function drive(
     client.off('connect', onConnect);
   })();
   return { messages, readings: messages * o.batch, elapsedMs: Date.now() - started, acked, replayed: () => replayed };
+}
+
+/** A throw-away test database with a rig of `probes` on it, broker and worker running and live. */
+export async function startLiveRig(probes: number): Promise<{ db: TestDatabase; rig: Rig }> {
+  const db = await createTestDatabase();
+  const rig = await createRig({ databaseUrl: db.databaseUrl, probes });
+  await rig.startBroker();
+  rig.startWorker();
+  await rig.waitLive();
+  return { db, rig };
+}
+
+/** Ends what startLiveRig started (every child process of the test included); safe after a failed start. */
+export async function stopLiveRig(live: { db?: TestDatabase; rig?: Rig }): Promise<void> {
+  await killAll();
+  await live.rig?.close();
+  await live.db?.drop();
 }
