@@ -83,6 +83,8 @@ export type BandRow = {
   tankName: string;
   circuitId: number;
   circuitTag: string;
+  /** As the Floor names it, e.g. "Train A · bioleach". */
+  circuitName: string;
   siteId: number;
   band: BandValues;
   mv: BandMvView | null;

@@ -7,12 +7,20 @@ import { createContext, useContext, type ReactNode } from 'react';
 /** `unacknowledged` counts the alarms of the worst priority that wait for acknowledgement. */
 export type TankAlarmBadge = { priority: 1 | 2 | 3; count: number; unacknowledged: number; label: string };
 
-const TankAlarmsContext = createContext<ReadonlyMap<number, TankAlarmBadge>>(new Map());
+/** `badges`: worst annunciated alarm per tank; `silenced`: how many of a tank's open alarms are shelved, suppressed or out of service. */
+export type TankAlarms = { badges: ReadonlyMap<number, TankAlarmBadge>; silenced: ReadonlyMap<number, number> };
 
-export function TankAlarmsProvider({ value, children }: { value: ReadonlyMap<number, TankAlarmBadge>; children: ReactNode }) {
+const TankAlarmsContext = createContext<TankAlarms>({ badges: new Map(), silenced: new Map() });
+
+export function TankAlarmsProvider({ value, children }: { value: TankAlarms; children: ReactNode }) {
   return <TankAlarmsContext.Provider value={value}>{children}</TankAlarmsContext.Provider>;
 }
 
 export function useTankAlarm(tankId: number): TankAlarmBadge | undefined {
-  return useContext(TankAlarmsContext).get(tankId);
+  return useContext(TankAlarmsContext).badges.get(tankId);
+}
+
+/** Open alarms of the tank that do not sound now (shelved, suppressed, out of service). */
+export function useTankSilencedAlarms(tankId: number): number {
+  return useContext(TankAlarmsContext).silenced.get(tankId) ?? 0;
 }

@@ -53,7 +53,7 @@ export const bandsService = {
         for (const t of c.tanks) {
           const { mv, note } = bandAsMv(t, t.band);
           tanks.push({
-            tankId: t.id, tankTag: t.tag, tankName: t.name, circuitId: c.id, circuitTag: c.tag, siteId: s.id,
+            tankId: t.id, tankTag: t.tag, tankName: t.name, circuitId: c.id, circuitTag: c.tag, circuitName: c.name, siteId: s.id,
             band: t.band, mv, mvNote: note, pending: pending.find((p) => p.tankId === t.id) ?? null,
           });
         }

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import type { AlarmView } from '@shared/schemas/alarms';
-import type { TankAlarmBadge } from '../../../lib/tank-alarms';
+import type { TankAlarmBadge, TankAlarms } from '../../../lib/tank-alarms';
 import { useActiveAlarms } from '../api/get-active-alarms';
 import { isAnnunciated, isUnacknowledged } from '../components/alarm-states';
 
@@ -20,7 +20,14 @@ export function tankBadges(alarms: readonly AlarmView[]): Map<number, TankAlarmB
   return out;
 }
 
-export function useTankAlarmBadges(): Map<number, TankAlarmBadge> {
+/** Per tank, how many open alarms are not annunciated (shelved, suppressed, out of service). */
+export function tankSilenced(alarms: readonly AlarmView[]): Map<number, number> {
+  const out = new Map<number, number>();
+  for (const a of alarms) if (!isAnnunciated(a.state)) out.set(a.tankId, (out.get(a.tankId) ?? 0) + 1);
+  return out;
+}
+
+export function useTankAlarmBadges(): TankAlarms {
   const alarms = useActiveAlarms().data?.alarms;
-  return useMemo(() => tankBadges(alarms ?? []), [alarms]);
+  return useMemo(() => ({ badges: tankBadges(alarms ?? []), silenced: tankSilenced(alarms ?? []) }), [alarms]);
 }

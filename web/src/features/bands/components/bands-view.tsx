@@ -20,7 +20,7 @@ export function BandsView({ user, timeZone, onBandChanged }: { user: SessionUser
   if (bands.isPending) return <Loading label="Loading bands…" />;
   if (bands.isError) return <ErrorState title="Bands could not be loaded" detail={bands.error.message} onRetry={() => bands.refetch()} />;
 
-  const circuits = [...new Map(bands.data.tanks.map((t) => [t.circuitId, t.circuitTag])).entries()];
+  const circuits = [...new Map(bands.data.tanks.map((t) => [t.circuitId, t.circuitName])).entries()];
   const canChange = CHANGERS.includes(user.role);
   const close = () => setEditing(null);
   const factorOf = (row: BandRow) => bands.data.approvalFactor[row.siteId] ?? 2;
@@ -34,11 +34,11 @@ export function BandsView({ user, timeZone, onBandChanged }: { user: SessionUser
         </p>
       </div>
       <BandChangesPanel title="Awaiting approval" filter={{ status: 'pending' }} user={user} timeZone={timeZone} empty="No band change is waiting." onChanged={onBandChanged} />
-      {circuits.map(([id, tag]) => {
+      {circuits.map(([id, name]) => {
         const rows = bands.data.tanks.filter((t) => t.circuitId === id);
         const here = editing && editing.row.circuitId === id ? editing : null;
         return (
-          <Panel key={id} title={`Circuit ${tag}`}>
+          <Panel key={id} title={name}>
             <BandTable
               rows={rows}
               selected={here?.row.tankId ?? null}

@@ -10,7 +10,7 @@ import { Quantity } from '../../../components/ui/quantity';
 import { formatDate, formatDateTime, formatEhV, formatFixed, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
 import type { Freshness } from '../../../lib/freshness';
 import { bandAsMv, bandPosition, uncertaintyFactor } from '../../../lib/redox-view';
-import { useTankAlarm } from '../../../lib/tank-alarms';
+import { useTankAlarm, useTankSilencedAlarms } from '../../../lib/tank-alarms';
 
 export const MIXED_POTENTIAL_CAVEAT =
   'ORP in real slurries is a mixed potential; the ratio is an estimate validated by lab assays.';
@@ -46,6 +46,7 @@ type Props = { tank: TankSummary; timeZone: string; freshness: Freshness; alarms
 export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHref }: Props) {
   const { probe, calibration, latest, band } = tank;
   const alarm = useTankAlarm(tank.id);
+  const silenced = useTankSilencedAlarms(tank.id);
   const tempC = latest?.tempC;
   const bandMv = bandAsMv(band, probe, calibration, tempC);
   const factor = uncertaintyFactor(probe, tempC);
@@ -171,9 +172,14 @@ export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHr
               {alarm.unacknowledged > 0 && <span className="font-semibold">not acknowledged</span>}
             </span>
           ) : (
-            <span className="text-ink-muted">None active</span>
+            <span className="text-ink-muted">{silenced > 0 ? 'None sounding' : 'None active'}</span>
           )}
         </Fact>
+        {silenced > 0 && (
+          <Fact label="Not sounding">
+            <span data-testid="tank-silenced">{silenced === 1 ? '1 shelved, suppressed or out of service' : `${silenced} shelved, suppressed or out of service`}</span>
+          </Fact>
+        )}
         {alarmsHref && (
           <Fact label="">
             <Link to={alarmsHref} className="text-info-ink underline">
