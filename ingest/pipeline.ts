@@ -53,7 +53,8 @@ export function convertReading(r: DecodedReading, lookup: ProbeLookup, opts: Pip
     });
     return {
       probeId: probe.probeId, tankId: probe.tankId, probeTag: probe.probeTag, siteTag: probe.siteTag,
-      tsMs, seq: r.seq, orpMv: r.orpMv, tempC: r.tempC, ...out,
+      tsMs, seq: r.seq, orpMv: r.orpMv, tempC: r.tempC,
+      ehV: out.ehV, ratio: out.ratio, ferricFraction: out.ferricFraction, flag: out.flag,
       calibrationVersion: cal.version, receivedAtMs: opts.receivedAtMs,
     };
   } catch (err) {

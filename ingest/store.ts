@@ -54,11 +54,15 @@ const ER_DUP_ENTRY = 1062;
 async function insertRows(conn: PoolConnection, rows: { r: ConvertedReading; ts: string }[]): Promise<void> {
   let receivedMs = NaN;
   let received = '';
-  const params = rows.flatMap(({ r, ts }) => {
+  // One flat array filled in place (no array per row): this runs for every reading stored.
+  const params: (string | number | null)[] = new Array(rows.length * 11);
+  let i = 0;
+  for (const { r, ts } of rows) {
     // Readings of one message share their receipt time: format it once.
     if (r.receivedAtMs !== receivedMs) [receivedMs, received] = [r.receivedAtMs, toSqlTs(r.receivedAtMs)];
-    return [r.probeId, ts, r.seq, r.orpMv, r.tempC, r.ehV, r.ratio, r.ferricFraction, r.flag, r.calibrationVersion, received];
-  });
+    params[i++] = r.probeId; params[i++] = ts; params[i++] = r.seq; params[i++] = r.orpMv; params[i++] = r.tempC; params[i++] = r.ehV;
+    params[i++] = r.ratio; params[i++] = r.ferricFraction; params[i++] = r.flag; params[i++] = r.calibrationVersion; params[i++] = received;
+  }
   await conn.execute(
     `INSERT INTO readings (probe_id, ts, seq, orp_mv, temp_c, eh_v, ratio, ferric_fraction, flag, calibration_version, received_at)
      VALUES ${placeholders(rows.length, 11)}`, params);

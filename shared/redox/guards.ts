@@ -24,21 +24,24 @@ export function requireFinite(name: string, value: unknown, unit = ''): number {
   return value;
 }
 
+/*
+ * The messages are built only on failure: these guards run several times per reading on the
+ * ingest hot path, where an eager template string per call was a tenth of the worker's time.
+ */
+
 /** A finite number in the closed interval [min, max]. */
 export function requireInRange(name: string, value: unknown, min: number, max: number, unit = ''): number {
-  const allowed = `a finite number in [${min}, ${max}]${unit ? ` ${unit}` : ''}`;
   if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
-    fail(name, allowed, value);
+    fail(name, `a finite number in [${min}, ${max}]${unit ? ` ${unit}` : ''}`, value);
   }
   return value;
 }
 
 /** A finite number in the half-open interval (0, max]. */
 export function requirePositive(name: string, value: unknown, max = Number.MAX_VALUE, unit = ''): number {
-  const upper = max === Number.MAX_VALUE ? 'finite' : String(max);
-  const allowed = `a finite number in (0, ${upper}]${unit ? ` ${unit}` : ''}`;
   if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0 || value > max) {
-    fail(name, allowed, value);
+    const upper = max === Number.MAX_VALUE ? 'finite' : String(max);
+    fail(name, `a finite number in (0, ${upper}]${unit ? ` ${unit}` : ''}`, value);
   }
   return value;
 }
