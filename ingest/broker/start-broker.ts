@@ -8,6 +8,8 @@ import type { Logger } from 'pino';
 import { logger as rootLogger } from '../../api/src/lib/logger.ts';
 import { createIngestPool } from '../db.ts';
 import { clientIdRefusal, publishRefusal, subscribeRefusal } from './acl.ts';
+import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
+import { BROKER_HEALTH_TOPIC, EdgeDeadLetters, SCREENED_TOPIC, screenMessage } from './edge-screen.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
 
 export type BrokerOptions = {
@@ -20,6 +22,12 @@ export type BrokerOptions = {
   servicePassword: string;
   serviceUser?: string;
   maxConnections?: number;
+  /**
+   * Dead-letter device messages that break the device contract here, before they are stored in
+   * the worker's session (default true). Off, the worker refuses them, as it does behind a
+   * site's own broker (MQTT_URL).
+   */
+  screenAtEdge?: boolean;
   log?: Logger;
 };
 
@@ -41,6 +49,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
   const levelDir = path.join(opts.dataDir, 'broker');
   mkdirSync(levelDir, { recursive: true });
   const db = new Level<string, Buffer>(levelDir);
+  const edge = opts.screenAtEdge === false ? null : new EdgeDeadLetters(pool, log);
 
   const broker = await Aedes.createBroker({
     persistence: aedesPersistenceLevel(db),
@@ -91,9 +100,19 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
         log.warn({ clientId: client.id, topic: packet.topic.slice(0, 200), refusal }, 'mqtt publish refused');
         return done(new Error(refusal));
       }
+      if (identity?.kind !== 'device') return done();
       // Devices cannot leave retained messages: a reading is an event, not a state.
-      if (identity?.kind === 'device') packet.retain = false;
-      done();
+      packet.retain = false;
+      // A message that breaks the device contract is dead-lettered here, with the reason the worker
+      // would give, and its PUBACK waits for that commit; it then goes to a topic nobody reads, so
+      // hostile traffic never fills the worker's session (G6). Batches and plant checks stay with the worker.
+      const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
+      const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
+      if (!letter) return done();
+      edge!.add(letter, (stored) => {
+        if (stored) packet.topic = SCREENED_TOPIC;
+        done();
+      });
     },
     authorizeSubscribe: (client, sub, done) => {
       const refusal = subscribeRefusal(identities.get(client));
@@ -105,6 +124,19 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     },
   });
 
+  // Health for Plant setup (retained, like the worker's), and a log line when something was refused.
+  const startedAt = new Date().toISOString();
+  let edgeLogged = 0;
+  const report = () => {
+    const snap: BrokerHealth = { at: new Date().toISOString(), startedAt, deadLetteredAtEdge: edge?.stored ?? 0, connectedClients: broker.connectedClients };
+    broker.publish({ cmd: 'publish', topic: BROKER_HEALTH_TOPIC, payload: Buffer.from(JSON.stringify(snap)), qos: 0, retain: true, dup: false }, () => undefined);
+    if (snap.deadLetteredAtEdge === edgeLogged) return;
+    log.info({ deadLettered: snap.deadLetteredAtEdge, sinceLast: snap.deadLetteredAtEdge - edgeLogged }, 'device messages dead-lettered at the broker');
+    edgeLogged = snap.deadLetteredAtEdge;
+  };
+  const edgeReport = setInterval(report, 30_000);
+  edgeReport.unref();
+  report();
   broker.on('clientError', (client, err) => log.debug({ clientId: client.id, err: err.message }, 'client error'));
   const server = net.createServer(broker.handle);
   await new Promise<void>((resolve, reject) => {
@@ -119,6 +151,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     broker,
     async close() {
       // Stop accepting first; broker.close() then ends every client, which lets server.close finish.
+      clearInterval(edgeReport);
       const serverClosed = new Promise<void>((resolve) => server.close(() => resolve()));
       await new Promise<void>((resolve) => broker.close(() => resolve()));
       await serverClosed;

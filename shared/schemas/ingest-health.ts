@@ -21,3 +21,12 @@ export type IngestHealth = {
   dbUp: boolean;
   mqttConnected: boolean;
 };
+
+/** Snapshot the embedded broker publishes (retained) on ferrisight/internal/v1/broker/health. */
+export type BrokerHealth = {
+  at: string;
+  startedAt: string;
+  /** Device messages that broke the device contract, dead-lettered by the broker itself. */
+  deadLetteredAtEdge: number;
+  connectedClients: number;
+};

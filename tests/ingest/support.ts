@@ -48,8 +48,8 @@ export function tempDir(): { dir: string; remove: () => void } {
   return { dir, remove: () => rmSync(dir, { recursive: true, force: true }) };
 }
 
-export async function brokerFor(databaseUrl: string, dataDir: string, port = 0): Promise<RunningBroker> {
-  return startBroker({ port, databaseUrl, dataDir, servicePassword: SERVICE_PASSWORD });
+export async function brokerFor(databaseUrl: string, dataDir: string, port = 0, opts: { screenAtEdge?: boolean } = {}): Promise<RunningBroker> {
+  return startBroker({ port, databaseUrl, dataDir, servicePassword: SERVICE_PASSWORD, ...opts });
 }
 
 /** Connects and resolves on CONNACK; rejects on refusal (no reconnects: tests must not hang). */

@@ -22,7 +22,8 @@ beforeAll(async () => {
   probeIds = await seedPlant(pool, 'kestrel', [{ tag: 'LIGHT-1' }, { tag: 'P2' }, { tag: 'NOCAL', formalPotentialV: null }]);
   await seedPlant(pool, 'osprey', [{ tag: 'OTHER-1' }]);
   await addDevice(pool, 'kestrel', 'dev-kestrel', 'device-password-1');
-  broker = await brokerFor(db.databaseUrl, tmp.dir);
+  // The worker's own checks, as behind a site's broker (MQTT_URL); edge-screen.test.ts covers the embedded broker's.
+  broker = await brokerFor(db.databaseUrl, tmp.dir, 0, { screenAtEdge: false });
   worker = await startWorker({
     databaseUrl: db.databaseUrl, mqttUrl: `mqtt://127.0.0.1:${broker.port}`, username: 'ferrisight-service',
     password: SERVICE_PASSWORD, clientId: 'ferrisight-ingest-test', retentionDays: 90,

@@ -1,6 +1,6 @@
 import { EventEmitter } from 'node:events';
 import mqtt, { type MqttClient } from 'mqtt';
-import type { IngestHealth } from '../../../shared/schemas/ingest-health.ts';
+import type { BrokerHealth, IngestHealth } from '../../../shared/schemas/ingest-health.ts';
 import { INTERNAL_PREFIX, type TankLive } from '../../../shared/schemas/readings.ts';
 import { logger } from '../lib/logger.ts';
 
@@ -14,13 +14,14 @@ export type SimCommand = SimFault & { action: 'start' | 'clear' };
 export class Bus extends EventEmitter {
   simState: SimFault[] = [];
   ingestHealth: IngestHealth | null = null;
+  brokerHealth: BrokerHealth | null = null;
   private client: MqttClient;
 
   constructor(url: string, username: string, password: string, clientId = `ferrisight-api-${process.pid}`) {
     super();
     this.client = mqtt.connect(url, { username, password, clientId, protocolVersion: 4, clean: true, reconnectPeriod: 2000 });
     this.client.on('connect', () => {
-      this.client.subscribe([`${INTERNAL_PREFIX}/+/latest`, `${INTERNAL_PREFIX}/sim/state`, `${INTERNAL_PREFIX}/ingest/health`], { qos: 0 });
+      this.client.subscribe([`${INTERNAL_PREFIX}/+/latest`, `${INTERNAL_PREFIX}/sim/state`, `${INTERNAL_PREFIX}/ingest/health`, `${INTERNAL_PREFIX}/broker/health`], { qos: 0 });
       this.emit('status', true);
     });
     this.client.on('close', () => this.emit('status', false));
@@ -34,6 +35,7 @@ export class Bus extends EventEmitter {
       if (topic.endsWith('/latest')) this.emit('latest', data.readings as TankLive[]);
       else if (topic.endsWith('/sim/state')) this.simState = data.faults ?? [];
       else if (topic.endsWith('/ingest/health')) this.ingestHealth = data;
+      else if (topic.endsWith('/broker/health')) this.brokerHealth = data;
     } catch (err) {
       logger.warn({ topic, err: (err as Error).message }, 'unreadable internal message');
     }

@@ -29,8 +29,8 @@ export function adminRouter(bus?: Bus): Router {
     res.status(202).json({ accepted: cmd });
   });
   r.get('/ingest-health', (_req, res) => {
-    // null until the worker has published its first snapshot.
-    res.json({ health: bus?.ingestHealth ?? null });
+    // null until the worker (the embedded broker) has published its first snapshot.
+    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null });
   });
   return r;
 }

@@ -1,12 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { IngestHealth } from '@shared/schemas/ingest-health';
+import type { BrokerHealth, IngestHealth } from '@shared/schemas/ingest-health';
 import { adminKeys } from './admin-keys';
 
-export type { IngestHealth };
+export type { BrokerHealth, IngestHealth };
+export type IngestHealthResponse = { health: IngestHealth | null; broker: BrokerHealth | null };
 
-export function getIngestHealth(signal?: AbortSignal): Promise<{ health: IngestHealth | null }> {
-  return api.get<{ health: IngestHealth | null }>('/api/admin/ingest-health', { signal });
+export function getIngestHealth(signal?: AbortSignal): Promise<IngestHealthResponse> {
+  return api.get<IngestHealthResponse>('/api/admin/ingest-health', { signal });
 }
 
 export const ingestHealthQueryOptions = () =>

@@ -26,6 +26,7 @@ export function IngestHealthPanel({ timeZone }: { timeZone: string }) {
   const health = useIngestHealth();
   const now = useNow();
   const h = health.data?.health;
+  const edge = health.data?.broker;
 
   return (
     <Panel title="Ingest health">
@@ -55,6 +56,12 @@ export function IngestHealthPanel({ timeZone }: { timeZone: string }) {
           <p className="mt-3 text-sm text-ink-muted">
             Figures from the ingest worker since {formatDateTime(h.startedAt, timeZone)} site time, updated {formatAge((now - Date.parse(h.at)) / 1000)}.
           </p>
+          {edge && (
+            <p className="mt-1 text-sm text-ink-muted" data-testid="edge-dead-letters">
+              The embedded broker dead-lettered <span className="font-semibold tabular-nums text-ink">{count(edge.deadLetteredAtEdge)}</span> messages
+              that broke the device contract since {formatDateTime(edge.startedAt, timeZone)}; they never reached the worker.
+            </p>
+          )}
         </>
       )}
     </Panel>
