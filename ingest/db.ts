@@ -32,30 +32,7 @@ export function createIngestPool(databaseUrl: string, connectionLimit = 4): Pool
   });
 }
 
-let lastSecond = NaN;
-let lastPrefix = '';
-
-/**
- * UTC epoch milliseconds → 'YYYY-MM-DD HH:MM:SS.mmm', the only timestamp form sent to MariaDB.
- * On the ingest hot path (a few per reading) consecutive calls mostly fall in the same second,
- * so the date-and-time part of the last second is reused and only the milliseconds appended.
- */
-export function toSqlTs(epochMs: number): string {
-  const ms = Math.trunc(epochMs); // as Date does
-  const second = Math.floor(ms / 1000);
-  if (second !== lastSecond) {
-    const iso = new Date(second * 1000).toISOString();
-    if (iso.length !== 24) return new Date(ms).toISOString().slice(0, 23).replace('T', ' '); // years outside 0000–9999
-    lastSecond = second;
-    lastPrefix = `${iso.slice(0, 10)} ${iso.slice(11, 19)}.`;
-  }
-  return lastPrefix + String(ms - second * 1000).padStart(3, '0');
-}
-
-/** 'YYYY-MM-DD HH:MM:SS[.mmm]' (UTC) → epoch milliseconds. */
-export function fromSqlTs(sqlTs: string): number {
-  return Date.parse(`${sqlTs.replace(' ', 'T')}Z`);
-}
+export { fromSqlTs, toSqlTs } from './timestamps.ts';
 
 /** '(?, ?, …)' groups for a multi-row VALUES clause. */
 export function placeholders(rows: number, columns: number): string {

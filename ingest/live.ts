@@ -1,11 +1,12 @@
 import type { MqttClient } from 'mqtt';
 import { latestTopic, type TankLive } from '../shared/schemas/readings.ts';
 import type { ConvertedReading } from './pipeline.ts';
+import { toIsoTs } from './timestamps.ts';
 
 /** Converted reading → the shape screens show (shared/schemas/readings.ts). */
 export function toTankLive(r: ConvertedReading): TankLive {
   return {
-    tankId: r.tankId, probeId: r.probeId, probeTag: r.probeTag, ts: new Date(r.tsMs).toISOString(),
+    tankId: r.tankId, probeId: r.probeId, probeTag: r.probeTag, ts: toIsoTs(r.tsMs),
     orpMv: r.orpMv, tempC: r.tempC, ehV: r.ehV, ratio: r.ratio, ferricFraction: r.ferricFraction,
     flag: r.flag, calibrationVersion: r.calibrationVersion,
   };

@@ -2,6 +2,7 @@ import { orpToRatio } from '../shared/redox/index.ts';
 import { MAX_FUTURE_SKEW_MS } from '../shared/schemas/readings.ts';
 import { decodeMessage, type Decoded, type DecodedReading, type Rejection } from './decode.ts';
 import type { ProbeLookup } from './probe-cache.ts';
+import { parseIsoTs } from './timestamps.ts';
 
 /** A converted reading, ready for storeReadings. */
 export type ConvertedReading = {
@@ -36,7 +37,7 @@ export function convertReading(r: DecodedReading, lookup: ProbeLookup, opts: Pip
   const probe = lookup.probe(r.probeTag);
   if (!probe) return `${at}unknown probe '${r.probeTag}'`;
   if (probe.siteTag !== r.siteTag) return `${at}probe '${r.probeTag}' does not belong to site '${r.siteTag}'`;
-  const tsMs = Date.parse(r.ts);
+  const tsMs = parseIsoTs(r.ts);
   if (!Number.isFinite(tsMs)) return `${at}ts is not a valid date`;
   if (tsMs > opts.receivedAtMs + MAX_FUTURE_SKEW_MS) {
     return `${at}ts ${r.ts} is more than ${MAX_FUTURE_SKEW_MS / 1000} s in the future`;

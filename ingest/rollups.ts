@@ -88,18 +88,23 @@ type BucketSum = {
 
 /** Aggregates of the given points per (probe, bucket), in memory. Exported for tests. */
 export function aggregateBuckets(points: RollupPoint[], bucketMs: number): BucketSum[] {
-  const out = new Map<string, BucketSum>();
+  // Per probe, then per bucket start: numeric keys, no string built per reading.
+  const byProbe = new Map<number, Map<number, BucketSum>>();
+  const out: BucketSum[] = [];
   for (const p of points) {
     const start = Math.floor(p.tsMs / bucketMs) * bucketMs;
-    const key = `${p.probeId}|${start}`;
+    let buckets = byProbe.get(p.probeId);
+    if (!buckets) byProbe.set(p.probeId, (buckets = new Map()));
     const lg = Math.log10(p.ratio);
-    const a = out.get(key);
+    const a = buckets.get(start);
     if (!a) {
-      out.set(key, {
+      const fresh: BucketSum = {
         probeId: p.probeId, bucketMs: start, n: 1,
         orpMin: p.orpMv, orpMax: p.orpMv, orpSum: p.orpMv, ehMin: p.ehV, ehMax: p.ehV, ehSum: p.ehV,
         tempMin: p.tempC, tempMax: p.tempC, tempSum: p.tempC, logSum: lg, logMin: lg, logMax: lg,
-      });
+      };
+      buckets.set(start, fresh);
+      out.push(fresh);
       continue;
     }
     a.n += 1;
@@ -108,7 +113,7 @@ export function aggregateBuckets(points: RollupPoint[], bucketMs: number): Bucke
     a.tempMin = Math.min(a.tempMin, p.tempC); a.tempMax = Math.max(a.tempMax, p.tempC); a.tempSum += p.tempC;
     a.logSum += lg; a.logMin = Math.min(a.logMin, lg); a.logMax = Math.max(a.logMax, lg);
   }
-  return [...out.values()];
+  return out;
 }
 
 /*

@@ -61,7 +61,8 @@ describe('broker authentication and topic rules', () => {
 
   it('when a device publishes under its own site, then the reading is delivered', async () => {
     const c = await device();
-    await c.publishAsync(readingTopic('kestrel', 'A1-ORP'), '{}', { qos: 1 });
+    // A reading that keeps the device contract (one that breaks it stops at the broker: edge-screen.test.ts).
+    await c.publishAsync(readingTopic('kestrel', 'A1-ORP'), JSON.stringify({ ts: new Date().toISOString(), orpMv: 401.2, tempC: 35, seq: 1 }), { qos: 1 });
     await c.endAsync();
     await new Promise((r) => setTimeout(r, 100));
     expect(seen).toContain(readingTopic('kestrel', 'A1-ORP'));
