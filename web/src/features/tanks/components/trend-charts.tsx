@@ -9,6 +9,7 @@ import type { AssayPoint } from '../api/get-tank-assays';
 import { useElementSize } from '../hooks/use-element-size';
 import { orpChartOptions, ratioChartOptions, readChartColours, tempChartOptions, type ChartGroup } from './chart-options';
 import { TrendReadout } from './trend-readout';
+import { expectedStepS, withGaps } from '../utils/trend-gaps';
 
 type Props = { tankId: number; trend: TrendResponse; band: Band; probe: ProbeInfo | null; timeZone: string; assays?: AssayPoint[] };
 
@@ -45,16 +46,18 @@ export function TrendCharts({ tankId, trend, band, probe, timeZone, assays = NO_
   const orpOpts = useMemo(() => orpChartOptions(common), [common]);
   const tempOpts = useMemo(() => tempChartOptions(common), [common]);
 
-  const { data, factors } = useMemo(() => {
-    const f = trend.tempC.map((tempC) => uncertaintyFactor(probe, tempC));
-    const hi = trend.ratio.map((r, i) => (f[i] ? r * f[i]! : null));
-    const lo = trend.ratio.map((r, i) => (f[i] ? r / f[i]! : null));
+  const { shown, data, factors } = useMemo(() => {
+    const g = withGaps(trend, expectedStepS(trend.resolution, probe?.intervalS));
+    const f = g.tempC.map((tempC) => uncertaintyFactor(probe, tempC));
+    const hi = g.ratio.map((r, i) => (r != null && f[i] ? r * f[i]! : null));
+    const lo = g.ratio.map((r, i) => (r != null && f[i] ? r / f[i]! : null));
     return {
+      shown: g,
       factors: f,
       data: {
-        ratio: [trend.t, trend.ratio, hi, lo, trend.ratioMax, trend.ratioMin] as uPlot.AlignedData,
-        orp: [trend.t, trend.orpMv] as uPlot.AlignedData,
-        temp: [trend.t, trend.tempC] as uPlot.AlignedData,
+        ratio: [g.t, g.ratio, hi, lo, g.ratioMax, g.ratioMin] as uPlot.AlignedData,
+        orp: [g.t, g.orpMv] as uPlot.AlignedData,
+        temp: [g.t, g.tempC] as uPlot.AlignedData,
       },
     };
   }, [trend, probe]);
@@ -66,7 +69,7 @@ export function TrendCharts({ tankId, trend, band, probe, timeZone, assays = NO_
 
   return (
     <div className="flex min-h-0 flex-1 flex-col gap-2">
-      <TrendReadout trend={trend} factors={factors} idx={cursorIdx} timeZone={timeZone} zoomed={zoomed} assays={assays.length} />
+      <TrendReadout trend={shown} factors={factors} idx={cursorIdx} timeZone={timeZone} zoomed={zoomed} assays={assays.length} />
       <div ref={boxRef} className="relative min-h-[26rem] flex-1" data-testid="trend-charts">
         {empty && (
           <div className="absolute inset-0 z-10 flex items-center justify-center text-ink-muted">No readings in this range.</div>

@@ -1,4 +1,5 @@
 import type { TrendResponse } from '@shared/schemas/plant';
+import type { ChartTrend } from '../utils/trend-gaps';
 import { Quantity } from '../../../components/ui/quantity';
 import { formatDateTime, formatMv, formatRatio, formatTempC } from '../../../lib/format';
 
@@ -17,7 +18,7 @@ export function TrendReadout({
   zoomed,
   assays = 0,
 }: {
-  trend: TrendResponse;
+  trend: ChartTrend;
   factors: Array<number | null>;
   idx: number | null;
   timeZone: string;
@@ -30,7 +31,9 @@ export function TrendReadout({
   const f = has ? factors[i] : null;
   return (
     <div className="flex flex-wrap items-baseline gap-x-5 gap-y-1 text-sm" aria-live="off">
-      {has ? (
+      {has && trend.ratio[i] == null ? (
+        <span className="text-ink-muted">No readings here: a gap in the data (the line breaks where readings stopped)</span>
+      ) : has ? (
         <>
           <span className="text-ink-muted">{idx == null ? 'Newest' : 'At'} {formatDateTime(trend.t[i] * 1000, timeZone)}</span>
           <span>
@@ -48,7 +51,7 @@ export function TrendReadout({
         <span className="text-ink-muted">No values</span>
       )}
       <span className="ml-auto text-ink-muted">
-        Shown: {RESOLUTION[trend.resolution]}. Band: light fill between dashed lines; darker fill: probe tolerance.{assays > 0 ? ` ◇ lab assay (${assays}).` : ''} {zoomed ? 'Double-click to reset zoom.' : 'Drag to zoom.'}
+        Shown: {RESOLUTION[trend.resolution]}. Band: light fill between dashed lines; darker fill: probe tolerance; a break in the line: no readings.{assays > 0 ? ` ◇ lab assay (${assays}).` : ''} {zoomed ? 'Double-click to reset zoom.' : 'Drag to zoom.'}
       </span>
     </div>
   );
