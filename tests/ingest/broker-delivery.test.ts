@@ -1,29 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { RunningBroker } from '../../ingest/broker/start-broker.ts';
-import type { Pool } from '../../ingest/db.ts';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
-import { SERVICE_PASSWORD, brokerFor, connect, createIngestPool, tempDir, waitFor } from './support.ts';
+import { describe, expect, it } from 'vitest';
+import { SERVICE_PASSWORD, connect, useBrokerRig, waitFor } from './support.ts';
 
-let db: TestDatabase;
-let pool: Pool;
-let broker: RunningBroker;
-const tmp = tempDir();
-
-beforeAll(async () => {
-  db = await createTestDatabase();
-  pool = createIngestPool(db.databaseUrl, 1);
-  broker = await brokerFor(db.databaseUrl, tmp.dir);
-});
-
-afterAll(async () => {
-  await broker?.close();
-  await pool?.end();
-  await db?.drop();
-  tmp.remove();
-});
+const rig = useBrokerRig();
 
 const service = (clientId: string, clean = true) =>
-  connect(broker.port, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId, clean });
+  connect(rig.broker.port, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId, clean });
 
 describe('broker delivery to a persistent session', () => {
   it('when three publishers send QoS 1 concurrently, then the clean: false subscriber receives every message live', async () => {

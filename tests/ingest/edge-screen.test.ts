@@ -1,11 +1,9 @@
 import pino from 'pino';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { EdgeDeadLetters, screenMessage } from '../../ingest/broker/edge-screen.ts';
-import type { RunningBroker } from '../../ingest/broker/start-broker.ts';
 import type { Pool } from '../../ingest/db.ts';
 import { batchTopic, readingTopic } from '../../shared/schemas/readings.ts';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
-import { SERVICE_PASSWORD, addDevice, brokerFor, connect, createIngestPool, seedPlant, tempDir, waitFor } from './support.ts';
+import { SERVICE_PASSWORD, addDevice, connect, seedPlant, useBrokerRig, waitFor } from './support.ts';
 
 const good = (seq: number) => JSON.stringify({ ts: new Date().toISOString(), orpMv: 412.5, tempC: 38, seq });
 
@@ -40,38 +38,23 @@ describe('edge screening: which device messages the broker refuses itself', () =
 });
 
 describe('edge screening in the embedded broker', () => {
-  let db: TestDatabase;
-  let pool: Pool;
-  let broker: RunningBroker;
-  const tmp = tempDir();
-
-  beforeAll(async () => {
-    db = await createTestDatabase();
-    pool = createIngestPool(db.databaseUrl, 1);
+  const rig = useBrokerRig(async (pool) => {
     await seedPlant(pool, 'kestrel', [{ tag: 'P1' }]);
     await addDevice(pool, 'kestrel', 'dev-edge', 'device-password-1');
-    broker = await brokerFor(db.databaseUrl, tmp.dir);
-  });
-
-  afterAll(async () => {
-    await broker?.close();
-    await pool?.end();
-    await db?.drop();
-    tmp.remove();
   });
 
   it('when a device sends a broken reading at QoS 1, then its dead letter is committed before the PUBACK and the worker\'s session never holds it', async () => {
     // A persistent subscriber, as the ingest worker is: what reaches it is what its session stores.
-    const sub = await connect(broker.port, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: 'ferrisight-edge-sub', clean: false });
+    const sub = await connect(rig.broker.port, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: 'ferrisight-edge-sub', clean: false });
     const received: string[] = [];
     sub.on('message', (t, p) => received.push(`${t} ${p.toString()}`));
     await sub.subscribeAsync('ferrisight/v1/#', { qos: 1 });
-    const device = await connect(broker.port, { username: 'dev-edge', password: 'device-password-1', clientId: 'dev-edge-1' });
+    const device = await connect(rig.broker.port, { username: 'dev-edge', password: 'device-password-1', clientId: 'dev-edge-1' });
     const topic = readingTopic('kestrel', 'P1');
 
     await device.publishAsync(topic, '{"ts": 1', { qos: 1 });
     // publishAsync resolves on the PUBACK: the row must already be there.
-    const rows = await pool.query('SELECT topic, payload, reason FROM dead_letters');
+    const rows = await rig.pool.query('SELECT topic, payload, reason FROM dead_letters');
     expect(rows).toEqual([{ topic, payload: '{"ts": 1', reason: expect.stringMatching(/^invalid JSON/) }]);
 
     await device.publishAsync(topic, good(2), { qos: 1 });

@@ -4,6 +4,8 @@ import os from 'node:os';
 import path from 'node:path';
 import bcrypt from 'bcryptjs';
 import mqtt, { type MqttClient } from 'mqtt';
+import { afterAll, beforeAll } from 'vitest';
+import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
 import { createIngestPool, type Pool } from '../../ingest/db.ts';
 import { startBroker, type RunningBroker } from '../../ingest/broker/start-broker.ts';
 
@@ -70,3 +72,25 @@ export async function waitFor<T>(check: () => Promise<T | undefined | false>, ti
 export const iso = (ms: number) => new Date(ms).toISOString();
 
 export { createIngestPool };
+
+/**
+ * One test file's database, pool and embedded broker, set up in beforeAll and torn down in
+ * afterAll; `seed` fills the database before the broker starts. Read the fields inside tests.
+ */
+export function useBrokerRig(seed?: (pool: Pool) => Promise<void>): { db: TestDatabase; pool: Pool; broker: RunningBroker } {
+  const rig = {} as { db: TestDatabase; pool: Pool; broker: RunningBroker };
+  const tmp = tempDir();
+  beforeAll(async () => {
+    rig.db = await createTestDatabase();
+    rig.pool = createIngestPool(rig.db.databaseUrl, 1);
+    await seed?.(rig.pool);
+    rig.broker = await brokerFor(rig.db.databaseUrl, tmp.dir);
+  });
+  afterAll(async () => {
+    await rig.broker?.close();
+    await rig.pool?.end();
+    await rig.db?.drop();
+    tmp.remove();
+  });
+  return rig;
+}
