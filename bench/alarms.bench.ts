@@ -14,7 +14,7 @@ import { io as connectClient } from 'socket.io-client';
 import { createSequelize } from '../api/src/db/sequelize.ts';
 import { issueToken } from '../api/src/modules/auth/tokens.ts';
 import { applyAction } from '../api/src/modules/alarms/lifecycle.ts';
-import { createIngestPool, toSqlTs } from '../ingest/db.ts';
+import { createIngestPool, toSqlTs } from '../api/src/db/pool.ts';
 import { findFreePort } from '../scripts/lib/ports.ts';
 import { seedDemo } from '../scripts/seed.ts';
 import { readingTopic } from '../shared/schemas/readings.ts';

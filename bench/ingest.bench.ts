@@ -10,7 +10,7 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { createIngestPool } from '../ingest/db.ts';
+import { createIngestPool } from '../api/src/db/pool.ts';
 import { findFreePort } from '../scripts/lib/ports.ts';
 import { runLoad } from '../simulators/plant/load.ts';
 import { ensureLoadProbes } from '../simulators/plant/load-probes.ts';

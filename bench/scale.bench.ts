@@ -10,7 +10,7 @@
  */
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { createIngestPool } from '../ingest/db.ts';
+import { createIngestPool } from '../api/src/db/pool.ts';
 import { startCluster } from '../tests/scale/lib/cluster.ts';
 import { addAlarmTanks, sitesOnSlices } from '../tests/scale/lib/plant.ts';
 import { closeWatchers, connectWatchers, watcherToken } from '../tests/scale/lib/watchers.ts';

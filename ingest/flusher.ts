@@ -1,11 +1,11 @@
 import type { Logger } from 'pino';
-import { inTransaction, type Pool } from './db.ts';
-import { insertDeadLetters, type DeadLetter } from './dead-letter.ts';
-import type { Decoded } from './decode.ts';
+import { inTransaction, type Pool } from '../api/src/db/pool.ts';
+import { insertDeadLetters, type DeadLetter } from '../api/src/modules/readings/dead-letters.repository.ts';
+import type { Decoded } from '../api/src/modules/readings/decode.ts';
 import type { IngestMetrics } from './metrics.ts';
-import { processDecoded, type ConvertedReading } from './pipeline.ts';
-import type { ProbeCache, ProbeLookup } from './probe-cache.ts';
-import { storeReadings, type StoreResult } from './store.ts';
+import { processDecoded, type ConvertedReading } from '../api/src/modules/readings/convert.ts';
+import type { ProbeCache, ProbeLookup } from '../api/src/modules/readings/probe-cache.ts';
+import { storeReadings, type StoreResult } from '../api/src/modules/readings/readings.repository.ts';
 
 /** One received message waiting for its commit; `ack` sends the PUBACK, `isStale` is true once its connection is gone. */
 export type QueueItem = {

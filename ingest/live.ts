@@ -1,7 +1,7 @@
 import type { MqttClient } from 'mqtt';
 import { latestTopic, type TankLive } from '../shared/schemas/readings.ts';
-import type { ConvertedReading } from './pipeline.ts';
-import { toIsoTs } from './timestamps.ts';
+import type { ConvertedReading } from '../api/src/modules/readings/convert.ts';
+import { toIsoTs } from '../api/src/db/timestamps.ts';
 
 /** Converted reading → the shape screens show (shared/schemas/readings.ts). */
 export function toTankLive(r: ConvertedReading): TankLive {

@@ -1,7 +1,7 @@
 import mqtt, { type IPublishPacket, type MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
 import { INTERNAL_PREFIX } from '../shared/schemas/readings.ts';
-import { decodeMessage } from './decode.ts';
+import { decodeMessage } from '../api/src/modules/readings/decode.ts';
 import type { Flusher } from './flusher.ts';
 import type { IngestMetrics } from './metrics.ts';
 

@@ -1,7 +1,7 @@
 import type { MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
 import { TOPIC_PREFIX } from '../shared/schemas/readings.ts';
-import type { Pool } from './db.ts';
+import type { Pool } from '../api/src/db/pool.ts';
 
 /**
  * Ingest slices: N workers share the device stream without processing a message twice.

@@ -4,13 +4,13 @@ import { logger as rootLogger } from '../api/src/lib/logger.ts';
 import { createAlarmEngine } from '../api/src/modules/alarms/engine.ts';
 import { queueAlarmReadings } from '../api/src/modules/alarms/engine-queue.ts';
 import { INTERNAL_PREFIX } from '../shared/schemas/readings.ts';
-import { createIngestPool } from './db.ts';
+import { createIngestPool } from '../api/src/db/pool.ts';
 import { Flusher } from './flusher.ts';
 import { LivePublisher, toTankLive } from './live.ts';
 import { IngestMetrics } from './metrics.ts';
 import { INVALIDATE_TOPIC, startIntake, type AckMode, type Intake } from './mqtt-intake.ts';
-import { ProbeCache } from './probe-cache.ts';
-import { deleteExpiredReadings } from './retention.ts';
+import { ProbeCache } from '../api/src/modules/readings/probe-cache.ts';
+import { deleteExpiredReadings } from '../api/src/modules/readings/retention.repository.ts';
 import { Lease } from '../api/src/cluster/lease.ts';
 import { loadTags, SliceSubscriptions, type SlicePlan } from './slices.ts';
 

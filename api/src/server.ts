@@ -8,7 +8,7 @@ import { logger } from './lib/logger.ts';
 import { createAuthService } from './modules/auth/auth.service.ts';
 import { Bus } from './realtime/bus.ts';
 import { attachRealtime } from './realtime/socket.ts';
-import { createIngestPool } from '../../ingest/db.ts';
+import { createIngestPool } from './db/pool.ts';
 import { Lease } from './cluster/lease.ts';
 import { connectReadReplica } from './cluster/read-db.ts';
 import { connectSocketCluster } from './cluster/socket-cluster.ts';

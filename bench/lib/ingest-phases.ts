@@ -7,7 +7,7 @@ import bcrypt from 'bcryptjs';
 import mqtt from 'mqtt';
 import { io as connectClient } from 'socket.io-client';
 import { issueToken } from '../../api/src/modules/auth/tokens.ts';
-import { placeholders, toSqlTs, type Pool } from '../../ingest/db.ts';
+import { placeholders, toSqlTs, type Pool } from '../../api/src/db/pool.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
 import { latestTopic, type TankLive } from '../../shared/schemas/readings.ts';
 import { runLoad, type LoadOptions } from '../../simulators/plant/load.ts';

@@ -10,7 +10,7 @@ import { createMigrator, createSequelize } from '../../api/src/db/sequelize.ts';
 import { batchTopic, readingTopic } from '../../shared/schemas/readings.ts';
 import { mariadbQuery, sqlString, startMariadb, stopMariadb, type MariadbOptions } from '../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
-import type { Pool } from '../../ingest/db.ts';
+import type { Pool } from '../../api/src/db/pool.ts';
 import { connectDevice, sleep, waitFor, type AlarmTank, type ScaleSite } from '../../tests/scale/lib/plant.ts';
 import type { Watcher } from '../../tests/scale/lib/watchers.ts';
 import { quantile } from './bench-db.ts';

@@ -1,8 +1,8 @@
 import type { Logger } from 'pino';
 import { INTERNAL_PREFIX, parseTopic } from '../../shared/schemas/readings.ts';
-import { inTransaction, type Pool } from '../db.ts';
-import { insertDeadLetters, type DeadLetter } from '../dead-letter.ts';
-import { decodeMessage } from '../decode.ts';
+import { inTransaction, type Pool } from '../../api/src/db/pool.ts';
+import { insertDeadLetters, type DeadLetter } from '../../api/src/modules/readings/dead-letters.repository.ts';
+import { decodeMessage } from '../../api/src/modules/readings/decode.ts';
 
 /**
  * Where a screened-out message goes instead of its own topic: nobody subscribes to it, so the

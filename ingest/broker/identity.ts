@@ -1,6 +1,6 @@
 import { createHash, timingSafeEqual } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import type { Pool } from '../db.ts';
+import type { Pool } from '../../api/src/db/pool.ts';
 
 /** Who a connected client is; devices are bound to one site. */
 export type Identity = { kind: 'service'; username: string } | { kind: 'device'; username: string; siteTag: string };

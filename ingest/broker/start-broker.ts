@@ -6,7 +6,7 @@ import aedesPersistenceLevel from 'aedes-persistence-level';
 import { Level } from 'level';
 import type { Logger } from 'pino';
 import { logger as rootLogger } from '../../api/src/lib/logger.ts';
-import { createIngestPool } from '../db.ts';
+import { createIngestPool } from '../../api/src/db/pool.ts';
 import { clientIdRefusal, publishRefusal, subscribeRefusal } from './acl.ts';
 import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { BROKER_HEALTH_TOPIC, EdgeDeadLetters, SCREENED_TOPIC, screenMessage } from './edge-screen.ts';

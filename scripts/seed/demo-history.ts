@@ -6,7 +6,7 @@
  * Runs once, right after the plant is seeded into an empty database (scripts/seed.ts).
  */
 import { QueryTypes, type Sequelize } from 'sequelize';
-import type { ConvertedReading } from '../../ingest/pipeline.ts';
+import type { ConvertedReading } from '../../api/src/modules/readings/convert.ts';
 import { SITE_SETTINGS } from '../../shared/schemas/workbench.ts';
 import { loadSimProbes } from '../../simulators/plant/plant-db.ts';
 import { appliedBandChanges, bandAtFor, seedBandChanges } from './demo-bands.ts';

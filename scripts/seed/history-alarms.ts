@@ -9,7 +9,7 @@ import { idleMemory, stepCondition, type ConditionMemory } from '../../shared/al
 import { KIND_INFO, limitFor, type AlarmKind } from '../../shared/alarms/kinds.ts';
 import type { AlarmAction } from '../../shared/alarms/states.ts';
 import { applyAction, type Actor } from '../../api/src/modules/alarms/lifecycle.ts';
-import type { ConvertedReading } from '../../ingest/pipeline.ts';
+import type { ConvertedReading } from '../../api/src/modules/readings/convert.ts';
 
 export type AlarmDefinitionRow = {
   id: number; tankId: number; kind: AlarmKind; priority: number; threshold: number | null; deadband: number;

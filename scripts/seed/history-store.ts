@@ -4,11 +4,11 @@
  * probe's reference and the tank's calibration), then written by the ingest worker's own
  * idempotent store, which keeps the 1-minute and 1-hour rollups in step.
  */
-import { createIngestPool, inTransaction } from '../../ingest/db.ts';
-import { decodeMessage } from '../../ingest/decode.ts';
-import { convertReading, type ConvertedReading } from '../../ingest/pipeline.ts';
-import { ProbeCache } from '../../ingest/probe-cache.ts';
-import { storeReadings } from '../../ingest/store.ts';
+import { createIngestPool, inTransaction } from '../../api/src/db/pool.ts';
+import { decodeMessage } from '../../api/src/modules/readings/decode.ts';
+import { convertReading, type ConvertedReading } from '../../api/src/modules/readings/convert.ts';
+import { ProbeCache } from '../../api/src/modules/readings/probe-cache.ts';
+import { storeReadings } from '../../api/src/modules/readings/readings.repository.ts';
 import { batchTopic, MAX_BATCH_READINGS } from '../../shared/schemas/readings.ts';
 import { HISTORY_RETENTION_DAYS } from './demo-story.ts';
 import type { ProbeHistory } from './history-model.ts';

@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Lease } from '../../api/src/cluster/lease.ts';
-import { createIngestPool, type Pool } from '../../ingest/db.ts';
+import { createIngestPool, type Pool } from '../../api/src/db/pool.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
 
 let db: TestDatabase;

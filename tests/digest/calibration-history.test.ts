@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { CalibrationHistory, convertReadingAt } from '../../ingest/calibration-history.ts';
-import { buildLookup } from '../../ingest/probe-cache.ts';
+import { CalibrationHistory, convertReadingAt } from '../../api/src/modules/readings/calibration-history.ts';
+import { buildLookup } from '../../api/src/modules/readings/probe-cache.ts';
 
 const T = Date.UTC(2026, 10, 1);
 const history = CalibrationHistory.fromRows([

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MqttClient } from 'mqtt';
 import { MAX_PAYLOAD_BYTES, readingTopic } from '../../shared/schemas/readings.ts';
 import type { RunningBroker } from '../../ingest/broker/start-broker.ts';
-import type { Pool } from '../../ingest/db.ts';
+import type { Pool } from '../../api/src/db/pool.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
 import { SERVICE_PASSWORD, addDevice, brokerFor, connect, createIngestPool, seedPlant, tempDir } from './support.ts';
 

@@ -4,7 +4,7 @@ import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { batchTopic } from '../../shared/schemas/readings.ts';
 import type { RunningBroker } from '../../ingest/broker/start-broker.ts';
-import type { Pool } from '../../ingest/db.ts';
+import type { Pool } from '../../api/src/db/pool.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
 import { SERVICE_PASSWORD, addDevice, brokerFor, connect, createIngestPool, iso, seedPlant, tempDir, waitFor } from './support.ts';
 

@@ -1,7 +1,7 @@
 import pino from 'pino';
 import { describe, expect, it } from 'vitest';
 import { EdgeDeadLetters, screenMessage } from '../../ingest/broker/edge-screen.ts';
-import type { Pool } from '../../ingest/db.ts';
+import type { Pool } from '../../api/src/db/pool.ts';
 import { batchTopic, readingTopic } from '../../shared/schemas/readings.ts';
 import { SERVICE_PASSWORD, addDevice, connect, seedPlant, useBrokerRig, waitFor } from './support.ts';
 

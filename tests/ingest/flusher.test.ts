@@ -1,10 +1,10 @@
 import pino from 'pino';
 import { describe, expect, it } from 'vitest';
-import { decodeMessage } from '../../ingest/decode.ts';
+import { decodeMessage } from '../../api/src/modules/readings/decode.ts';
 import { Flusher, type QueueItem, type StoreFlush } from '../../ingest/flusher.ts';
 import { IngestMetrics } from '../../ingest/metrics.ts';
-import type { ConvertedReading } from '../../ingest/pipeline.ts';
-import { buildLookup } from '../../ingest/probe-cache.ts';
+import type { ConvertedReading } from '../../api/src/modules/readings/convert.ts';
+import { buildLookup } from '../../api/src/modules/readings/probe-cache.ts';
 import { readingTopic } from '../../shared/schemas/readings.ts';
 
 /*

@@ -6,7 +6,7 @@ import bcrypt from 'bcryptjs';
 import mqtt, { type MqttClient } from 'mqtt';
 import { afterAll, beforeAll } from 'vitest';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
-import { createIngestPool, type Pool } from '../../ingest/db.ts';
+import { createIngestPool, type Pool } from '../../api/src/db/pool.ts';
 import { startBroker, type RunningBroker } from '../../ingest/broker/start-broker.ts';
 
 export const SERVICE_PASSWORD = 'test-service-password-0123456789';

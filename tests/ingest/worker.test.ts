@@ -3,7 +3,7 @@ import type { MqttClient } from 'mqtt';
 import { batchTopic, latestTopic, readingTopic, type TankLive } from '../../shared/schemas/readings.ts';
 import { startWorker, type RunningWorker } from '../../ingest/start-worker.ts';
 import type { RunningBroker } from '../../ingest/broker/start-broker.ts';
-import type { Pool } from '../../ingest/db.ts';
+import type { Pool } from '../../api/src/db/pool.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
 import { SERVICE_PASSWORD, addDevice, brokerFor, connect, createIngestPool, iso, seedPlant, tempDir, waitFor } from './support.ts';
 

@@ -9,7 +9,7 @@ import path from 'node:path';
 import { io } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sliceOf } from '../../ingest/slices.ts';
-import { createIngestPool, type Pool } from '../../ingest/db.ts';
+import { createIngestPool, type Pool } from '../../api/src/db/pool.ts';
 import { listCaughtMail } from '../../api/src/modules/notify/mail-store.ts';
 import { startMailCatcher, type MailCatcher } from '../../simulators/mail-catcher.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';

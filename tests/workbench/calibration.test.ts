@@ -1,8 +1,8 @@
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createIngestPool } from '../../ingest/db.ts';
-import { convertReading } from '../../ingest/pipeline.ts';
-import { ProbeCache } from '../../ingest/probe-cache.ts';
+import { createIngestPool } from '../../api/src/db/pool.ts';
+import { convertReading } from '../../api/src/modules/readings/convert.ts';
+import { ProbeCache } from '../../api/src/modules/readings/probe-cache.ts';
 import { formalPotentialAtV, orpToRatio, ratioToOrpMv, referenceById } from '../../shared/redox/index.ts';
 import { createTestApi, type TestApi } from '../helpers/api.ts';
 import { as, auditActions, insertReadings, probeOf, tankId } from './helpers.ts';

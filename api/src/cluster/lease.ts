@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import os from 'node:os';
 import type { Logger } from 'pino';
-import type { Pool } from '../../../ingest/db.ts';
+import type { Pool } from '../db/pool.ts';
 import { logger as rootLogger } from '../lib/logger.ts';
 
 export type LeaseOptions = {

@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import { createIngestPool, type Pool } from '../../../ingest/db.ts';
+import { createIngestPool, type Pool } from './pool.ts';
 
 const pools = new WeakMap<Sequelize, Pool>();
 

@@ -17,7 +17,7 @@ import { createAlarmEngine } from '../modules/alarms/engine.ts';
 import { assaysService } from '../modules/assays/assays.service.ts';
 import { probeChecksService } from '../modules/probe-checks/probe-checks.service.ts';
 import { createNotifier } from '../modules/notify/notifier.ts';
-import { createIngestPool } from '../../../ingest/db.ts';
+import { createIngestPool } from '../db/pool.ts';
 import { Lease } from '../cluster/lease.ts';
 
 const TICK_MS = 5_000;

@@ -7,7 +7,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import mqtt, { type MqttClient } from 'mqtt';
-import { createIngestPool, type Pool } from '../../../ingest/db.ts';
+import { createIngestPool, type Pool } from '../../../api/src/db/pool.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { readingTopic } from '../../../shared/schemas/readings.ts';
 import { addDevice, seedPlant } from '../../ingest/support.ts';

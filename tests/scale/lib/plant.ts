@@ -7,7 +7,7 @@
 import mqtt, { type MqttClient } from 'mqtt';
 import { definitionsRepository } from '../../../api/src/modules/alarms/definitions.repository.ts';
 import { createSequelize } from '../../../api/src/db/sequelize.ts';
-import type { Pool } from '../../../ingest/db.ts';
+import type { Pool } from '../../../api/src/db/pool.ts';
 import { sliceOf } from '../../../ingest/slices.ts';
 import { CIRCUIT_TEMPLATES } from '../../../shared/alarms/templates.ts';
 import { readingTopic } from '../../../shared/schemas/readings.ts';

@@ -4,7 +4,7 @@
  * it arrived, so a test can ask "did every client on every node get every alarm, and how late".
  */
 import { io, type Socket } from 'socket.io-client';
-import type { Pool } from '../../../ingest/db.ts';
+import type { Pool } from '../../../api/src/db/pool.ts';
 import { issueToken } from '../../../api/src/modules/auth/tokens.ts';
 import { JWT_SECRET } from './cluster.ts';
 

@@ -1,6 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import { recomputeRollups } from '../../../../ingest/rollups.ts';
-import type { PoolConnection } from '../../../../ingest/db.ts';
+import { recomputeRollups } from '../readings/rollups.repository.ts';
+import type { PoolConnection } from '../../db/pool.ts';
 import { orpToRatio } from '../../../../shared/redox/index.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { ProbeRef } from './calibration.repository.ts';

@@ -2,7 +2,7 @@ import type { Readable } from 'node:stream';
 import type { ExportSource } from '../../../../shared/schemas/export.ts';
 import { Site } from '../../db/models.ts';
 import { rawPool } from '../../db/raw-pool.ts';
-import type { PoolConnection } from '../../../../ingest/db.ts';
+import type { PoolConnection } from '../../db/pool.ts';
 import { sqlTs } from '../shifts/shifts.repository.ts';
 
 export type ExportProbe = { probeId: number; probeTag: string; tankId: number; tankTag: string };

@@ -1,7 +1,7 @@
 import { readingFieldsSchema } from '../../../../shared/schemas/readings.ts';
 import type { ImportField } from '../../../../shared/schemas/import.ts';
-import { describeIssues, type DecodedReading } from '../../../../ingest/decode.ts';
-import type { ProbeLookup } from '../../../../ingest/probe-cache.ts';
+import { describeIssues, type DecodedReading } from '../readings/decode.ts';
+import type { ProbeLookup } from '../readings/probe-cache.ts';
 
 /** The device contract's limits on time, ORP and temperature: an imported row obeys the same ones. */
 const fieldsSchema = readingFieldsSchema.pick({ ts: true, orpMv: true, tempC: true });

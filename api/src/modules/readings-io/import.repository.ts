@@ -1,6 +1,6 @@
 import type { Readable } from 'node:stream';
 import type { ImportJobStatus, ImportJobView } from '../../../../shared/schemas/import.ts';
-import { fromSqlTs, placeholders, type PoolConnection } from '../../../../ingest/db.ts';
+import { fromSqlTs, placeholders, type PoolConnection } from '../../db/pool.ts';
 import { Site } from '../../db/models.ts';
 import { rawPool } from '../../db/raw-pool.ts';
 import type { Rejection } from './import-rows.ts';

@@ -1,12 +1,12 @@
 import fs from 'node:fs';
 import { pipeline, Transform } from 'node:stream';
 import { parse } from 'csv-parse';
-import { CalibrationHistory, convertReadingAt } from '../../../../ingest/calibration-history.ts';
-import { inTransaction, type Pool } from '../../../../ingest/db.ts';
-import type { DecodedReading } from '../../../../ingest/decode.ts';
-import type { ConvertedReading } from '../../../../ingest/pipeline.ts';
-import { ProbeCache } from '../../../../ingest/probe-cache.ts';
-import { storeReadings, type StoreResult } from '../../../../ingest/store.ts';
+import { CalibrationHistory, convertReadingAt } from '../readings/calibration-history.ts';
+import { inTransaction, type Pool } from '../../db/pool.ts';
+import type { DecodedReading } from '../readings/decode.ts';
+import type { ConvertedReading } from '../readings/convert.ts';
+import { ProbeCache } from '../readings/probe-cache.ts';
+import { storeReadings, type StoreResult } from '../readings/readings.repository.ts';
 import { IMPORT_MAX_KEPT_REJECTIONS, mapImportHeader, type ImportField } from '../../../../shared/schemas/import.ts';
 import { importRepository, type JobProgress } from './import.repository.ts';
 import { decodeImportRow, rejection, type Rejection } from './import-rows.ts';

@@ -1,7 +1,7 @@
 import fs from 'node:fs/promises';
 import type { Readable } from 'node:stream';
 import type { ImportJobView } from '../../../../shared/schemas/import.ts';
-import type { PoolConnection } from '../../../../ingest/db.ts';
+import type { PoolConnection } from '../../db/pool.ts';
 import { Site } from '../../db/models.ts';
 import { rawPool } from '../../db/raw-pool.ts';
 import { AppError } from '../../lib/app-error.ts';

@@ -1,7 +1,7 @@
 import type { z } from 'zod';
 import {
   MAX_BATCH_READINGS, MAX_PAYLOAD_BYTES, batchReadingSchema, parseTopic, readingMessageSchema,
-} from '../shared/schemas/readings.ts';
+} from '../../../../shared/schemas/readings.ts';
 
 /** A reading that passed the device contract, not yet matched to a probe. */
 export type DecodedReading = {

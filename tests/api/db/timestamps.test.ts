@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { fromSqlTs, toSqlTs } from '../../ingest/db.ts';
-import { parseIsoTs, toIsoTs } from '../../ingest/timestamps.ts';
+import { fromSqlTs, toSqlTs } from '../../../api/src/db/pool.ts';
+import { parseIsoTs, toIsoTs } from '../../../api/src/db/timestamps.ts';
 
 // Reference: the ECMAScript Date's own ISO 8601 rendering (toISOString), cut to MariaDB's DATETIME(3) text form.
 const viaDate = (ms: number) => new Date(ms).toISOString().slice(0, 23).replace('T', ' ');

@@ -1,4 +1,4 @@
-import { placeholders, toSqlTs, type PoolConnection } from './db.ts';
+import { placeholders, toSqlTs, type PoolConnection } from '../../db/pool.ts';
 
 /** One refused message or batch element, kept for people to inspect and replay. */
 export type DeadLetter = { topic: string; payload: Buffer; reason: string; receivedAtMs: number };

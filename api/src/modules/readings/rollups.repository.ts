@@ -1,4 +1,4 @@
-import { placeholders, toSqlTs, type PoolConnection } from './db.ts';
+import { placeholders, toSqlTs, type PoolConnection } from '../../db/pool.ts';
 
 const MINUTE_MS = 60_000;
 const HOUR_MS = 3_600_000;

@@ -1,5 +1,5 @@
 import type { Logger } from 'pino';
-import { toSqlTs, type Pool } from './db.ts';
+import { toSqlTs, type Pool } from '../../db/pool.ts';
 
 const HOUR_MS = 3_600_000;
 const CHUNK_ROWS = 5_000;

@@ -2,7 +2,7 @@
  * Timestamp text on the ingest hot path, where every reading is parsed once and formatted two or
  * three times. Readings in a flush mostly share their second, so each function keeps the text (or
  * the epoch value) of the last second it saw and only handles the milliseconds; every other
- * input takes the full Date path. Each gives exactly what Date gives (tests/ingest/timestamps.test.ts).
+ * input takes the full Date path. Each gives exactly what Date gives (tests/api/db/timestamps.test.ts).
  */
 
 let lastSecond = NaN;

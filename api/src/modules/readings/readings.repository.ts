@@ -1,6 +1,6 @@
-import { placeholders, toSqlTs, type PoolConnection } from './db.ts';
-import type { ConvertedReading } from './pipeline.ts';
-import { addToRollups } from './rollups.ts';
+import { placeholders, toSqlTs, type PoolConnection } from '../../db/pool.ts';
+import type { ConvertedReading } from './convert.ts';
+import { addToRollups } from './rollups.repository.ts';
 
 export type StoreResult = {
   /** New rows written. */

@@ -1,6 +1,6 @@
-import { fromSqlTs, type Pool } from './db.ts';
+import { fromSqlTs, type Pool } from '../../db/pool.ts';
 import type { DecodedReading } from './decode.ts';
-import { convertReading, type ConvertedReading, type PipelineOptions } from './pipeline.ts';
+import { convertReading, type ConvertedReading, type PipelineOptions } from './convert.ts';
 import type { ProbeEntry, ProbeLookup } from './probe-cache.ts';
 
 type Cal = NonNullable<ProbeEntry['calibration']> & { validFromMs: number };

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { renderPayload } from '../../ingest/dead-letter.ts';
-import { processMessage } from '../../ingest/pipeline.ts';
-import { buildLookup } from '../../ingest/probe-cache.ts';
-import { MAX_PAYLOAD_BYTES, batchTopic, readingTopic } from '../../shared/schemas/readings.ts';
+import { renderPayload } from '../../../api/src/modules/readings/dead-letters.repository.ts';
+import { processMessage } from '../../../api/src/modules/readings/convert.ts';
+import { buildLookup } from '../../../api/src/modules/readings/probe-cache.ts';
+import { MAX_PAYLOAD_BYTES, batchTopic, readingTopic } from '../../../shared/schemas/readings.ts';
 
 const NOW = Date.UTC(2026, 11, 1, 8, 0, 0);
 const lookup = buildLookup([{

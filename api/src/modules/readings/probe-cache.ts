@@ -1,5 +1,5 @@
-import type { ReferenceElectrode } from '../shared/redox/index.ts';
-import type { Pool } from './db.ts';
+import type { ReferenceElectrode } from '../../../../shared/redox/index.ts';
+import type { Pool } from '../../db/pool.ts';
 
 /** Everything the worker needs to convert one probe's readings. */
 export type ProbeEntry = {

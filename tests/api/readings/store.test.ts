@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { inTransaction, type Pool } from '../../ingest/db.ts';
-import type { ConvertedReading } from '../../ingest/pipeline.ts';
-import { deleteExpiredReadings, retentionCutoffMs } from '../../ingest/retention.ts';
-import { storeReadings } from '../../ingest/store.ts';
-import { logger } from '../../api/src/lib/logger.ts';
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
-import { createIngestPool, seedPlant } from './support.ts';
+import { inTransaction, type Pool } from '../../../api/src/db/pool.ts';
+import type { ConvertedReading } from '../../../api/src/modules/readings/convert.ts';
+import { deleteExpiredReadings, retentionCutoffMs } from '../../../api/src/modules/readings/retention.repository.ts';
+import { storeReadings } from '../../../api/src/modules/readings/readings.repository.ts';
+import { logger } from '../../../api/src/lib/logger.ts';
+import { createTestDatabase, type TestDatabase } from '../../helpers/test-db.ts';
+import { createIngestPool, seedPlant } from '../../ingest/support.ts';
 
 let db: TestDatabase;
 let pool: Pool;

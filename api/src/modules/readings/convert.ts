@@ -1,8 +1,8 @@
-import { orpToRatio } from '../shared/redox/index.ts';
-import { MAX_FUTURE_SKEW_MS } from '../shared/schemas/readings.ts';
+import { orpToRatio } from '../../../../shared/redox/index.ts';
+import { MAX_FUTURE_SKEW_MS } from '../../../../shared/schemas/readings.ts';
 import { decodeMessage, type Decoded, type DecodedReading, type Rejection } from './decode.ts';
 import type { ProbeLookup } from './probe-cache.ts';
-import { parseIsoTs } from './timestamps.ts';
+import { parseIsoTs } from '../../db/timestamps.ts';
 
 /** A converted reading, ready for storeReadings. */
 export type ConvertedReading = {
