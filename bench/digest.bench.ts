@@ -5,7 +5,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import { initModels } from '../api/src/db/models.ts';
-import { createSequelize } from '../api/src/db/sequelize.ts';
+import { Database } from '../api/src/db/database.ts';
 import { digestService } from '../api/src/modules/digest/digest.service.ts';
 import { seedDemo } from '../scripts/seed.ts';
 import { median, startBenchDb } from './lib/bench-db.ts';
@@ -16,7 +16,8 @@ const out = (s: string) => process.stdout.write(s + '\n');
 /** Seeds the demo plant and a week of minute rollups on databaseUrl, then times the digest. */
 export async function runDigestBench(databaseUrl: string): Promise<{ medianMs: number; bytes: number }> {
   await seedDemo(databaseUrl, 'bench-device-password');
-  const seq = createSequelize(databaseUrl, 5);
+  const db = new Database(databaseUrl, { poolMax: 5 });
+  const seq = db.sequelize;
   initModels(seq);
   try {
     const probes = await seq.query<{ id: number }>('SELECT id FROM probes ORDER BY id', { type: 'SELECT' as never });
@@ -50,7 +51,7 @@ export async function runDigestBench(databaseUrl: string): Promise<{ medianMs: n
     // The first calls warm the buffer pool and the JIT; the median speaks for a day of use.
     return { medianMs: median(times.slice(2)), bytes };
   } finally {
-    await seq.close();
+    await db.close();
   }
 }
 

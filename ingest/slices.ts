@@ -2,6 +2,7 @@ import type { MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
 import { TOPIC_PREFIX } from '../shared/schemas/readings.ts';
 import type { Pool } from '../api/src/db/pool.ts';
+import { lookupsRepository } from '../api/src/modules/readings/lookups.repository.ts';
 
 /**
  * Ingest slices: N workers share the device stream without processing a message twice.
@@ -62,17 +63,8 @@ export function sliceFilters(plan: SlicePlan, tags: Tag[], baseFilter = `${TOPIC
   return { mine: [...mine].sort(), others: [...others].sort() };
 }
 
-const TAGS_SQL = `
-  SELECT s.tag AS site_tag, p.tag AS probe_tag
-    FROM sites s
-    LEFT JOIN circuits ci ON ci.site_id = s.id
-    LEFT JOIN tanks t ON t.circuit_id = ci.id
-    LEFT JOIN probes p ON p.tank_id = t.id`;
-
-export async function loadTags(pool: Pool): Promise<Tag[]> {
-  const rows = (await pool.query(TAGS_SQL)) as { site_tag: string; probe_tag: string | null }[];
-  return rows.map((r) => ({ siteTag: r.site_tag, probeTag: r.probe_tag }));
-}
+/** Every site with its probes, for building the topic filters. */
+export const loadTags = (pool: Pool): Promise<Tag[]> => lookupsRepository.topicTags(pool);
 
 /**
  * Keeps one slice's subscriptions in step with the plant: on every (re)connect and whenever

@@ -3,7 +3,7 @@ import path from 'node:path';
 import { createApp } from './app.ts';
 import { config } from './config.ts';
 import { initModels } from './db/models.ts';
-import { createSequelize } from './db/sequelize.ts';
+import { Database } from './db/database.ts';
 import { logger } from './lib/logger.ts';
 import { createAuthService } from './modules/auth/auth.service.ts';
 import { Bus } from './realtime/bus.ts';
@@ -16,9 +16,9 @@ import { connectSocketCluster } from './cluster/socket-cluster.ts';
 /** API process: HTTP API, the built web app and socket.io on one port. */
 async function main(): Promise<void> {
   const cfg = config();
-  const sequelize = createSequelize(cfg.DATABASE_URL);
-  initModels(sequelize);
-  await sequelize.authenticate();
+  const db = new Database(cfg.DATABASE_URL);
+  initModels(db.sequelize);
+  await db.sequelize.authenticate();
 
   const auth = createAuthService({ jwtSecret: cfg.JWT_SECRET, ttlS: cfg.JWT_TTL_S });
   const bus = cfg.SERVICE_MQTT_PASSWORD ? new Bus(cfg.MQTT_URL, cfg.SERVICE_MQTT_USER, cfg.SERVICE_MQTT_PASSWORD) : undefined;
@@ -48,7 +48,7 @@ async function main(): Promise<void> {
     await cluster?.close();
     await closeReplica();
     await bus?.close();
-    await sequelize.close();
+    await db.close();
     process.exit(0);
   };
   process.once('SIGTERM', stop);

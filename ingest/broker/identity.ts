@@ -1,11 +1,11 @@
 import { createHash, timingSafeEqual } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { Pool } from '../../api/src/db/pool.ts';
+import { lookupsRepository, type DeviceRow } from '../../api/src/modules/readings/lookups.repository.ts';
 
 /** Who a connected client is; devices are bound to one site. */
 export type Identity = { kind: 'service'; username: string } | { kind: 'device'; username: string; siteTag: string };
 
-type DeviceRow = { password_hash: string; enabled: number; site_tag: string };
 type CacheEntry = { atMs: number; row: DeviceRow | null; verifiedSha256: Buffer | null };
 
 const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest();
@@ -51,10 +51,7 @@ export class IdentityDirectory {
   private async lookup(username: string): Promise<CacheEntry> {
     const hit = this.cache.get(username);
     if (hit && Date.now() - hit.atMs < this.ttlMs) return hit;
-    const rows: DeviceRow[] = await this.pool.query(
-      `SELECT d.password_hash, d.enabled, s.tag AS site_tag
-         FROM devices d JOIN sites s ON s.id = d.site_id WHERE d.username = ?`, [username]);
-    const row = rows[0] ?? null;
+    const row = await lookupsRepository.device(this.pool, username);
     // Keep the verified digest only while the stored hash is unchanged (a password reset invalidates it).
     const verifiedSha256 = hit && row && hit.row?.password_hash === row.password_hash ? hit.verifiedSha256 : null;
     const entry = { atMs: Date.now(), row, verifiedSha256 };

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { applyAction } from '../../api/src/modules/alarms/lifecycle.ts';
-import { recordProbeCheck } from '../../api/src/modules/alarms/inputs.ts';
+import { recordProbeCheck } from '../../api/src/modules/alarms/alarm-inputs.repository.ts';
 import { createAlarmTestApi, eventsOf, withoutTimerDefinitions, instancesOf, MIN, onlyDefinition, reading, testClock, type AlarmTestApi } from './helpers.ts';
 
 let t: AlarmTestApi;

@@ -4,7 +4,7 @@ import type { Sequelize } from 'sequelize';
 import request from 'supertest';
 import { createApp } from '../../api/src/app.ts';
 import { User, initModels } from '../../api/src/db/models.ts';
-import { createSequelize } from '../../api/src/db/sequelize.ts';
+import { Database } from '../../api/src/db/database.ts';
 import { createAuthService, type AuthService } from '../../api/src/modules/auth/auth.service.ts';
 import { LoginThrottle } from '../../api/src/modules/auth/login-throttle.ts';
 import { ROLES, type Role } from '../../shared/schemas/auth.ts';
@@ -29,7 +29,8 @@ export type TestApi = {
 export async function createTestApi(opts: { seedPlant?: boolean; throttle?: LoginThrottle } = {}): Promise<TestApi> {
   const db = await createTestDatabase();
   if (opts.seedPlant ?? true) await seedDemo(db.databaseUrl, 'sim-device-password-for-tests');
-  const sequelize = createSequelize(db.databaseUrl, 5);
+  const database = new Database(db.databaseUrl, { poolMax: 5 });
+  const { sequelize } = database;
   initModels(sequelize);
   const hash = await bcrypt.hash(TEST_PASSWORD, 4);
   const users = {} as Record<Role, number>;
@@ -47,7 +48,7 @@ export async function createTestApi(opts: { seedPlant?: boolean; throttle?: Logi
   return {
     app, auth, sequelize, databaseUrl: db.databaseUrl, cookies, users,
     async close() {
-      await sequelize.close();
+      await database.close();
       await db.drop();
     },
   };

@@ -3,6 +3,7 @@ import os from 'node:os';
 import type { Logger } from 'pino';
 import type { Pool } from '../db/pool.ts';
 import { logger as rootLogger } from '../lib/logger.ts';
+import { leaseRepository } from './lease.repository.ts';
 
 export type LeaseOptions = {
   /** How long a renewal keeps the lease, by the database clock. */
@@ -13,8 +14,6 @@ export type LeaseOptions = {
   owner?: string;
   log?: Logger;
 };
-
-type Upsert = { affectedRows: number };
 
 /**
  * A database lease (table `leases`, migration 20261201-0900): the job it names runs on one
@@ -62,20 +61,14 @@ export class Lease {
     const was = this.held;
     try {
       if (!this.rowReady) {
-        await this.pool.query("INSERT INTO leases (name, owner, token, expires_at) VALUES (?, '', 0, '1970-01-01 00:00:01') ON DUPLICATE KEY UPDATE name = name", [this.name]);
+        await leaseRepository.ensureRow(this.pool, this.name);
         this.rowReady = true;
       }
-      // token is assigned before owner on purpose: MariaDB evaluates SET left to right.
-      const r = (await this.pool.query(
-        `UPDATE leases SET token = token + (owner <> ?), owner = ?, expires_at = NOW(3) + INTERVAL ? MICROSECOND, renewed_at = NOW(3)
-          WHERE name = ? AND (owner = ? OR expires_at < NOW(3))`,
-        [this.owner, this.owner, this.ttlMs * 1000, this.name, this.owner],
-      )) as Upsert;
-      if (r.affectedRows === 1) {
+      if (await leaseRepository.claim(this.pool, this.name, this.owner, this.ttlMs)) {
         this.validUntil = sentAt + this.ttlMs - this.renewMs;
         if (!was) {
-          const [row] = (await this.pool.query('SELECT token, progress FROM leases WHERE name = ?', [this.name])) as { token: number; progress: number | null }[];
-          this.token = Number(row?.token ?? 0);
+          const row = await leaseRepository.read(this.pool, this.name);
+          this.token = row?.token ?? 0;
           this.progress = row?.progress ?? null;
           this.log.info({ owner: this.owner, token: this.token }, 'lease acquired');
         }
@@ -106,7 +99,7 @@ export class Lease {
   async saveProgress(value: number): Promise<void> {
     if (!this.held) return;
     this.progress = value;
-    await this.pool.query('UPDATE leases SET progress = ? WHERE name = ? AND owner = ?', [value, this.name, this.owner]);
+    await leaseRepository.saveProgress(this.pool, this.name, this.owner, value);
   }
 
   /** Stops renewing and hands the lease back, so a successor need not wait for the expiry. */
@@ -117,8 +110,8 @@ export class Lease {
     await this.running?.catch(() => undefined);
     if (!this.held) return;
     this.validUntil = 0;
-    await this.pool
-      .query("UPDATE leases SET expires_at = '1970-01-01 00:00:01' WHERE name = ? AND owner = ?", [this.name, this.owner])
+    await leaseRepository
+      .release(this.pool, this.name, this.owner)
       .catch((err: Error) => this.log.warn({ err: err.message }, 'lease release failed; it expires on its own'));
     this.log.info({ owner: this.owner }, 'lease released');
   }

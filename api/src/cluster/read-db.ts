@@ -33,11 +33,11 @@ export function connectReadReplica(url: string | undefined): () => Promise<void>
 }
 
 /** Runs a read-only query on the replica when there is one, else (or when it fails) on the primary. */
-export async function onReadReplica<T>(query: (db: Sequelize) => Promise<T>): Promise<T> {
+export async function onReadReplica<T>(read: (db: Sequelize) => Promise<T>): Promise<T> {
   const primary = Site.sequelize!;
-  if (!replica) return query(primary);
+  if (!replica) return read(primary);
   try {
-    return await query(replica);
+    return await read(replica);
   } catch (err) {
     const e = err as Error & { name?: string };
     // Only an unreachable replica falls back: a bad query would fail on the primary too.
@@ -46,6 +46,6 @@ export async function onReadReplica<T>(query: (db: Sequelize) => Promise<T>): Pr
       warnedAt = Date.now();
       logger.warn({ err: e.message }, 'read replica unavailable; trend queries use the primary');
     }
-    return query(primary);
+    return read(primary);
   }
 }

@@ -1,10 +1,7 @@
 import type { Server, Socket } from 'socket.io';
-import { QueryTypes, type Sequelize } from 'sequelize';
-import type { AlarmEventView } from '../../../shared/schemas/alarms.ts';
-import { Site } from '../db/models.ts';
 import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
-import { EVENT_SELECT, toEventView, type EventRow } from '../modules/alarms/views.ts';
+import { alarmsRepository } from '../modules/alarms/alarms.repository.ts';
 
 /**
  * Alarm events to browsers. The table is the feed: every ~100 ms the API reads alarm_events
@@ -24,13 +21,9 @@ export const REPLAY_MAX = 2000;
 const POLL_MS = 100;
 const REPLAY_INTERVAL_MS = 1000;
 
-export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs?: number; lease?: Lease } = {}) {
-  const db = opts.db ?? (() => Site.sequelize!);
+export function attachAlarmFeed(io: Server, opts: { pollMs?: number; lease?: Lease } = {}) {
   let last: number | null = null;
   let busy = false;
-
-  const fetchAfter = async (after: number, limit: number): Promise<AlarmEventView[]> =>
-    (await db().query<EventRow>(`${EVENT_SELECT} WHERE e.id > :after ORDER BY e.id LIMIT :limit`, { replacements: { after, limit }, type: QueryTypes.SELECT })).map(toEventView);
 
   const poll = async () => {
     if (busy) return;
@@ -41,11 +34,8 @@ export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs
     busy = true;
     try {
       if (last === null && opts.lease?.progress != null) last = opts.lease.progress;
-      if (last === null) {
-        const [row] = await db().query<{ id: number | null }>('SELECT MAX(id) AS id FROM alarm_events', { type: QueryTypes.SELECT });
-        last = row?.id ?? 0;
-      }
-      const events = await fetchAfter(last, 500);
+      last ??= await alarmsRepository.lastEventId();
+      const events = await alarmsRepository.eventsAfter(last, 500);
       for (const e of events) {
         io.to(`site:${e.siteTag}`).emit('alarm:event', e);
         last = e.id;
@@ -62,9 +52,9 @@ export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs
 
   /** Joins the site rooms before reading, so nothing falls between the replay and the live feed. */
   const replay = async (socket: Socket, after: number) => {
-    const sites = await db().query<{ tag: string }>('SELECT tag FROM sites', { type: QueryTypes.SELECT });
-    await Promise.all(sites.map((s) => socket.join(`site:${s.tag}`)));
-    const events = await fetchAfter(after, REPLAY_MAX + 1);
+    const sites = await alarmsRepository.siteTags();
+    await Promise.all(sites.map((tag) => socket.join(`site:${tag}`)));
+    const events = await alarmsRepository.eventsAfter(after, REPLAY_MAX + 1);
     if (events.length > REPLAY_MAX) return void socket.emit('alarm:resync', { lastEventId: events[events.length - 1].id });
     for (const e of events) socket.emit('alarm:event', e);
   };

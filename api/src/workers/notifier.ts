@@ -11,7 +11,7 @@
  */
 import { config } from '../config.ts';
 import { initModels } from '../db/models.ts';
-import { createSequelize } from '../db/sequelize.ts';
+import { Database } from '../db/database.ts';
 import { logger } from '../lib/logger.ts';
 import { createAlarmEngine } from '../modules/alarms/engine.ts';
 import { assaysService } from '../modules/assays/assays.service.ts';
@@ -25,7 +25,8 @@ const MAIL_MS = 2_000;
 
 async function main(): Promise<void> {
   const cfg = config();
-  const sequelize = createSequelize(cfg.DATABASE_URL, 4);
+  const db = new Database(cfg.DATABASE_URL, { poolMax: 4 });
+  const { sequelize } = db;
   initModels(sequelize);
   for (let attempt = 1; ; attempt += 1) {
     try {
@@ -82,7 +83,7 @@ async function main(): Promise<void> {
     await lease.stop();
     await leasePool.end().catch(() => undefined);
     notifier.close();
-    await sequelize.close();
+    await db.close();
     process.exit(0);
   };
   process.once('SIGTERM', stop);

@@ -3,9 +3,28 @@ import type { Activation, Annunciation, OpenAlarm } from '../../../../shared/ala
 import { KIND_INFO, type AlarmKind, type Priority } from '../../../../shared/alarms/kinds.ts';
 import type { ActiveQuery, AlarmEventView, AlarmView, HistoryQuery } from '../../../../shared/schemas/alarms.ts';
 import { Site } from '../../db/models.ts';
-import { EVENT_SELECT, INSTANCE_SELECT, toAlarmView, toEventView, type EventRow, type InstanceRow } from './views.ts';
+import { toAlarmView, toEventView, type EventRow, type InstanceRow } from './views.ts';
 
-/** Read side of alarms for the API (the write side is lifecycle.ts). Raw SQL, plain objects out. */
+/** Read side of alarms for the API (the write side is lifecycle.repository.ts). Raw SQL, plain objects out. */
+
+/** An alarm instance with its definition, tank, circuit and site (rows: InstanceRow). */
+export const INSTANCE_SELECT = `SELECT i.*, d.kind, d.cause, d.consequence, d.action, d.response_min,
+    t.tag AS tank_tag, t.name AS tank_name, c.id AS circuit_id, c.tag AS circuit_tag, s.tag AS site_tag
+  FROM alarm_instances i
+  JOIN alarm_definitions d ON d.id = i.definition_id
+  JOIN tanks t ON t.id = i.tank_id
+  JOIN circuits c ON c.id = t.circuit_id
+  JOIN sites s ON s.id = c.site_id`;
+
+/** An alarm event with its alarm's kind, priority, tank and site (rows: EventRow). */
+export const EVENT_SELECT = `SELECT e.*, d.kind AS alarm_kind, i.priority, t.tag AS tank_tag, s.tag AS site_tag
+  FROM alarm_events e
+  JOIN alarm_instances i ON i.id = e.instance_id
+  JOIN alarm_definitions d ON d.id = e.definition_id
+  JOIN tanks t ON t.id = e.tank_id
+  JOIN circuits c ON c.id = t.circuit_id
+  JOIN sites s ON s.id = c.site_id`;
+
 const db = (): Sequelize => Site.sequelize!;
 const select = <T extends object>(sql: string, replacements: Record<string, unknown> | unknown[] = {}) =>
   db().query<T>(sql, { replacements, type: QueryTypes.SELECT });
@@ -23,6 +42,11 @@ function filters(q: { site?: string; circuit?: number; tank?: number; priority?:
 const label = (tankTag: string, kind: AlarmKind) => `${tankTag} · ${KIND_INFO[kind].label}`;
 
 export const alarmsRepository = {
+  /** Every site's tag (the live feed's rooms). */
+  async siteTags(): Promise<string[]> {
+    return (await select<{ tag: string }>('SELECT tag FROM sites')).map((r) => r.tag);
+  },
+
   async lastEventId(): Promise<number> {
     const [row] = await select<{ id: number | null }>('SELECT MAX(id) AS id FROM alarm_events');
     return row?.id ?? 0;

@@ -6,7 +6,7 @@ import {
 } from '../../../../shared/schemas/alarms.ts';
 import { idParamSchema } from '../../../../shared/schemas/plant.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import { alarmsService as svc } from './alarms.service.ts';
 import { definitionsRouter } from './definitions.router.ts';
 
@@ -19,24 +19,24 @@ export function alarmsRouter(): Router {
   const r = Router();
   r.use(requireSignIn);
   r.get('/active', async (req, res) => {
-    res.json(await svc.active(query(activeQuerySchema, req)));
+    res.json(await svc.active(queryParams(activeQuerySchema, req)));
   });
   r.get('/summary', async (_req, res) => {
     res.json(await svc.summary());
   });
   r.get('/events', async (req, res) => {
-    const q = query(eventsAfterQuerySchema, req);
+    const q = queryParams(eventsAfterQuerySchema, req);
     res.json(await svc.eventsAfter(q.after, q.limit));
   });
   r.get('/history', async (req, res) => {
-    res.json(await svc.history(query(historyQuerySchema, req)));
+    res.json(await svc.history(queryParams(historyQuerySchema, req)));
   });
   r.get('/history/export', async (req, res) => {
-    const csv = await svc.historyCsv(query(historyQuerySchema, req));
+    const csv = await svc.historyCsv(queryParams(historyQuerySchema, req));
     res.type('text/csv').attachment(`alarm-history-${new Date().toISOString().slice(0, 10)}.csv`).send(csv);
   });
   r.get('/figures', async (req, res) => {
-    const q = query(figuresQuerySchema, req);
+    const q = queryParams(figuresQuerySchema, req);
     res.json(await svc.figures(q.from, q.to, q.site));
   });
   r.get('/instances/:id', async (req, res) => {

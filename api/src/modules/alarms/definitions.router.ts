@@ -4,7 +4,7 @@ import type { Role } from '../../../../shared/schemas/auth.ts';
 import { applyTemplateSchema, createDefinitionSchema, updateDefinitionSchema } from '../../../../shared/schemas/alarms.ts';
 import { idParamSchema } from '../../../../shared/schemas/plant.ts';
 import { requireRole } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import { definitionsService as svc } from './definitions.service.ts';
 
 /** Metallurgists and admins own alarm settings (the band owners); every change carries a reason. */
@@ -13,7 +13,7 @@ const EDIT_ROLES: Role[] = ['metallurgist', 'admin'];
 /** Adds the definition and template routes to the alarms router (same /api/alarms prefix). */
 export function definitionsRouter(r: Router): void {
   r.get('/definitions', async (req, res) => {
-    const { tank } = query(z.object({ tank: z.coerce.number().int().positive().optional() }), req);
+    const { tank } = queryParams(z.object({ tank: z.coerce.number().int().positive().optional() }), req);
     res.json({ definitions: await svc.list(tank) });
   });
   r.post('/definitions', requireRole(...EDIT_ROLES), async (req, res) => {

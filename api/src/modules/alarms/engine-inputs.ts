@@ -1,6 +1,6 @@
 import type { Sequelize } from 'sequelize';
 import { logger } from '../../lib/logger.ts';
-import { recordCalibrationDrift } from './inputs.ts';
+import { recordCalibrationDrift } from './alarm-inputs.repository.ts';
 
 /**
  * Optional pull hooks into the features that own the inputs of two alarm kinds; the notifier

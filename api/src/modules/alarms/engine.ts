@@ -8,10 +8,10 @@ import { logger } from '../../lib/logger.ts';
 import {
   definitionsForTanks, expiredShelves, lastReadingTimes, recentSamples, suppressionChanges, timerDefinitions,
   type EvalDefinition, type TimerDefinition,
-} from './engine-queries.ts';
+} from './engine.repository.ts';
 import { DEFAULT_CHECK_INTERVAL_DAYS, inputPuller, type AlarmInputProviders } from './engine-inputs.ts';
 import { SampleWindows } from './engine-windows.ts';
-import { recordCalibrationDrift } from './inputs.ts';
+import { recordCalibrationDrift } from './alarm-inputs.repository.ts';
 import { applyAction, type Actor } from './lifecycle.ts';
 
 export type AlarmEngine = {

@@ -2,16 +2,8 @@ import { KIND_INFO, type AlarmKind, type Priority } from '../../../../shared/ala
 import type { AlarmHow, AlarmState } from '../../../../shared/alarms/states.ts';
 import type { AlarmEventView, AlarmView } from '../../../../shared/schemas/alarms.ts';
 
-/** Row shapes and their mapping to the API views; shared by the repository and the live feed. */
+/** Row shapes of the alarm SELECTs (alarms.repository.ts) and their mapping to the API views. */
 const iso = (d: Date | string | null): string | null => (d === null ? null : new Date(d).toISOString());
-
-export const INSTANCE_SELECT = `SELECT i.*, d.kind, d.cause, d.consequence, d.action, d.response_min,
-    t.tag AS tank_tag, t.name AS tank_name, c.id AS circuit_id, c.tag AS circuit_tag, s.tag AS site_tag
-  FROM alarm_instances i
-  JOIN alarm_definitions d ON d.id = i.definition_id
-  JOIN tanks t ON t.id = i.tank_id
-  JOIN circuits c ON c.id = t.circuit_id
-  JOIN sites s ON s.id = c.site_id`;
 
 export type InstanceRow = {
   id: number; definition_id: number; tank_id: number; priority: Priority; state: AlarmState; condition_active: number;
@@ -35,14 +27,6 @@ export function toAlarmView(r: InstanceRow): AlarmView {
     lastEventId: r.last_event_id,
   };
 }
-
-export const EVENT_SELECT = `SELECT e.*, d.kind AS alarm_kind, i.priority, t.tag AS tank_tag, s.tag AS site_tag
-  FROM alarm_events e
-  JOIN alarm_instances i ON i.id = e.instance_id
-  JOIN alarm_definitions d ON d.id = e.definition_id
-  JOIN tanks t ON t.id = e.tank_id
-  JOIN circuits c ON c.id = t.circuit_id
-  JOIN sites s ON s.id = c.site_id`;
 
 export type EventRow = {
   id: number; instance_id: number; definition_id: number; tank_id: number; at: Date; kind: string; from_state: AlarmState;

@@ -14,6 +14,8 @@ export type StoredAssay = NewAssay & {
   retractedAt: Date | null; retractedBy: number | null; retractReason: string | null;
 };
 
+export type ReadingsNearAssay = { assayId: number; probeId: number; n: number; orpMv: number; tempC: number; lnRatio: number; calibrationVersion: number };
+
 const CHUNK = 1000;
 
 export const assaysRepository = {
@@ -91,5 +93,28 @@ export const assaysRepository = {
 
   async exists(id: number): Promise<boolean> {
     return (await AssayRow.count({ where: { id } })) > 0;
+  },
+
+  /**
+   * Per assay and probe, the tank's readings within ±windowMin of the sampling time: how many,
+   * mean ORP and temperature, mean ln(ratio) and the highest calibration version among them.
+   */
+  async readingsNearAssays(assayIds: number[], windowMin: number): Promise<ReadingsNearAssay[]> {
+    if (assayIds.length === 0) return [];
+    const rows = await Tank.sequelize!.query<{ assay_id: number; probe_id: number; n: number; orp: number; temp: number; ln_ratio: number; cv: number }>(
+      `SELECT a.id AS assay_id, r.probe_id, COUNT(*) AS n, AVG(r.orp_mv) AS orp, AVG(r.temp_c) AS temp,
+              AVG(LN(r.ratio)) AS ln_ratio, MAX(r.calibration_version) AS cv
+         FROM assays a
+         JOIN probes p ON p.tank_id = a.tank_id
+         JOIN readings r ON r.probe_id = p.id
+          AND r.ts BETWEEN a.sampled_at - INTERVAL :us MICROSECOND AND a.sampled_at + INTERVAL :us MICROSECOND
+        WHERE a.id IN (:ids)
+        GROUP BY a.id, r.probe_id`,
+      { replacements: { ids: assayIds, us: Math.round(windowMin * 60e6) }, type: QueryTypes.SELECT },
+    );
+    return rows.map((r) => ({
+      assayId: r.assay_id, probeId: r.probe_id, n: Number(r.n), orpMv: Number(r.orp), tempC: Number(r.temp),
+      lnRatio: Number(r.ln_ratio), calibrationVersion: Number(r.cv),
+    }));
   },
 };

@@ -4,7 +4,7 @@ import { ASSAY_CSV_MAX_BYTES, assayEntrySchema, assayRetractSchema, assaysQueryS
 import { idParamSchema } from '../../../../shared/schemas/plant.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import { assayCsvService } from './assay-csv.service.ts';
 import { assaysService } from './assays.service.ts';
 
@@ -37,7 +37,7 @@ export function assaysRouter(): Router {
   const r = Router();
   const write = requireRole('metallurgist', 'admin');
   r.get('/', requireSignIn, async (req, res) => {
-    res.json(await assaysService.list(query(assaysQuerySchema, req)));
+    res.json(await assaysService.list(queryParams(assaysQuerySchema, req)));
   });
   r.get('/template.csv', requireSignIn, async (_req, res) => {
     res.type('text/csv; charset=utf-8').attachment('ferrisight-assays-template.csv').send(await assayCsvService.template());

@@ -4,7 +4,7 @@ import {
 } from '../../../../shared/schemas/bands.ts';
 import { idParamSchema } from '../../../../shared/schemas/plant.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { bandsService } from './bands.service.ts';
 
@@ -17,7 +17,7 @@ export function bandsRouter(bus?: Bus): Router {
     res.json(await bandsService.list());
   });
   r.get('/changes', requireSignIn, async (req, res) => {
-    res.json({ changes: await bandsService.changes(query(bandChangesQuerySchema, req)) });
+    res.json({ changes: await bandsService.changes(queryParams(bandChangesQuerySchema, req)) });
   });
   r.put('/:id', change, async (req, res) => {
     const { id } = params(idParamSchema, req);

@@ -1,6 +1,7 @@
 import type {
   ApplyResult, CalibrationApplyInput, CalibrationFitInput, CalibrationOverview, FitResult, RecomputeInput, RecomputeResult,
 } from '../../../../shared/schemas/calibration.ts';
+import { rawPool } from '../../db/database.ts';
 import { Tank } from '../../db/models.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
@@ -82,14 +83,10 @@ export const calibrationService = {
     const probes = await repo.probes(tankId);
     const fromMs = Date.parse(input.from);
     const toMs = Date.parse(input.to);
-    const updated = await Tank.sequelize!.transaction(async (tx) => {
-      const n = await recomputeReadings(Tank.sequelize!, tx, probes, cal, fromMs, toMs);
-      await writeAudit({
-        userId, action: 'calibration.recompute', entity: 'tank', entityId: tankId, reason: input.reason,
-        after: { version: cal.version, from: input.from, to: input.to, readings: n },
-      }, tx);
-      return n;
-    });
+    const updated = await recomputeReadings(rawPool(Tank.sequelize!), probes, cal, fromMs, toMs, (n) => ({
+      userId, action: 'calibration.recompute', entity: 'tank', entityId: tankId, reason: input.reason,
+      after: { version: cal.version, from: input.from, to: input.to, readings: n },
+    }));
     logger.info({ tankId, version: cal.version, updated }, 'readings recomputed');
     return { version: cal.version, updated, from: input.from, to: input.to };
   },

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { digestQuerySchema } from '../../../../shared/schemas/digest.ts';
 import { requireSignIn } from '../../middleware/auth.ts';
-import { query } from '../../middleware/validate.ts';
+import { queryParams } from '../../middleware/validate.ts';
 import { digestService } from './digest.service.ts';
 
 /**
@@ -11,7 +11,7 @@ import { digestService } from './digest.service.ts';
 export function digestRouter(): Router {
   const r = Router();
   r.get('/', requireSignIn, async (req, res) => {
-    res.json(await digestService.digest(query(digestQuerySchema, req)));
+    res.json(await digestService.digest(queryParams(digestQuerySchema, req)));
   });
   return r;
 }

@@ -1,6 +1,6 @@
 import type { MinutePoint } from '../../../../shared/digest/time-in-band.ts';
 import { Site } from '../../db/models.ts';
-import { rawPool } from '../../db/raw-pool.ts';
+import { rawPool } from '../../db/database.ts';
 import { sqlTs } from '../shifts/shifts.repository.ts';
 
 export type DigestTank = { id: number; tag: string; name: string; circuitTag: string; band: { low: number; high: number } };

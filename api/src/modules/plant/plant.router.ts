@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { idParamSchema, trendQuerySchema } from '../../../../shared/schemas/plant.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { requireSignIn } from '../../middleware/auth.ts';
-import { params, query } from '../../middleware/validate.ts';
+import { params, queryParams } from '../../middleware/validate.ts';
 import { plantService } from './plant.service.ts';
 
 export function plantRouter(): Router {
@@ -18,7 +18,7 @@ export function plantRouter(): Router {
   });
   r.get('/tanks/:id/trend', async (req, res) => {
     const { id } = params(idParamSchema, req);
-    res.json(await plantService.trend(id, query(trendQuerySchema, req)));
+    res.json(await plantService.trend(id, queryParams(trendQuerySchema, req)));
   });
   return r;
 }

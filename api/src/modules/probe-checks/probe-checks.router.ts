@@ -4,7 +4,7 @@ import {
   checkIntervalSchema, probeCheckSchema, probeChecksQuerySchema, probeReplacementSchema,
 } from '../../../../shared/schemas/probe-checks.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import { probeChecksService } from './probe-checks.service.ts';
 
 /** Probe checks, due dates and the replacement log: everyone reads; metallurgists and admins record. */
@@ -12,7 +12,7 @@ export function probeChecksRouter(): Router {
   const r = Router();
   const write = requireRole('metallurgist', 'admin');
   r.get('/', requireSignIn, async (req, res) => {
-    res.json({ checks: await probeChecksService.list(query(probeChecksQuerySchema, req)) });
+    res.json({ checks: await probeChecksService.list(queryParams(probeChecksQuerySchema, req)) });
   });
   r.post('/', write, async (req, res) => {
     res.status(201).json({ check: await probeChecksService.record(body(probeCheckSchema, req), req.user!.id) });
@@ -27,7 +27,7 @@ export function probeChecksRouter(): Router {
     res.json({ probe: (await probeChecksService.due()).find((d) => d.probeId === id) ?? null });
   });
   r.get('/replacements', requireSignIn, async (req, res) => {
-    res.json({ replacements: await probeChecksService.replacements(query(probeChecksQuerySchema, req)) });
+    res.json({ replacements: await probeChecksService.replacements(queryParams(probeChecksQuerySchema, req)) });
   });
   r.post('/replacements', write, async (req, res) => {
     res.status(201).json({ replacement: await probeChecksService.replace(body(probeReplacementSchema, req), req.user!.id) });

@@ -1,7 +1,7 @@
 import type { Readable } from 'node:stream';
 import type { ExportSource } from '../../../../shared/schemas/export.ts';
 import { Site } from '../../db/models.ts';
-import { rawPool } from '../../db/raw-pool.ts';
+import { rawPool } from '../../db/database.ts';
 import type { PoolConnection } from '../../db/pool.ts';
 import { sqlTs } from '../shifts/shifts.repository.ts';
 

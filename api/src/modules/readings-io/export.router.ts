@@ -2,14 +2,14 @@ import { Router } from 'express';
 import { exportQuerySchema } from '../../../../shared/schemas/export.ts';
 import { logger } from '../../lib/logger.ts';
 import { requireSignIn } from '../../middleware/auth.ts';
-import { query } from '../../middleware/validate.ts';
+import { queryParams } from '../../middleware/validate.ts';
 import { exportService } from './export.service.ts';
 
 /** GET /api/readings/export: readings of chosen tanks as CSV, for everyone signed in. */
 export function exportRouter(): Router {
   const r = Router();
   r.get('/export', requireSignIn, async (req, res) => {
-    const q = query(exportQuerySchema, req);
+    const q = queryParams(exportQuerySchema, req);
     const plan = await exportService.plan(q);
     res.status(200).attachment(plan.fileName).type('text/csv; charset=utf-8');
     res.setHeader('Cache-Control', 'no-store');

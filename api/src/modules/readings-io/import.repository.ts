@@ -2,7 +2,7 @@ import type { Readable } from 'node:stream';
 import type { ImportJobStatus, ImportJobView } from '../../../../shared/schemas/import.ts';
 import { fromSqlTs, placeholders, type PoolConnection } from '../../db/pool.ts';
 import { Site } from '../../db/models.ts';
-import { rawPool } from '../../db/raw-pool.ts';
+import { rawPool } from '../../db/database.ts';
 import type { Rejection } from './import-rows.ts';
 
 type JobRow = {

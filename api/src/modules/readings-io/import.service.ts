@@ -3,7 +3,7 @@ import type { Readable } from 'node:stream';
 import type { ImportJobView } from '../../../../shared/schemas/import.ts';
 import type { PoolConnection } from '../../db/pool.ts';
 import { Site } from '../../db/models.ts';
-import { rawPool } from '../../db/raw-pool.ts';
+import { rawPool } from '../../db/database.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
 import { writeAudit } from '../audit.repository.ts';

@@ -1,4 +1,5 @@
-import { fromSqlTs, type Pool } from '../../db/pool.ts';
+import type { Pool } from '../../db/pool.ts';
+import { lookupsRepository, type CalibrationRow } from './lookups.repository.ts';
 import type { DecodedReading } from './decode.ts';
 import { convertReading, type ConvertedReading, type PipelineOptions } from './convert.ts';
 import type { ProbeEntry, ProbeLookup } from './probe-cache.ts';
@@ -13,7 +14,7 @@ type Cal = NonNullable<ProbeEntry['calibration']> & { validFromMs: number };
 export class CalibrationHistory {
   private constructor(private readonly byTank: Map<number, Cal[]>) {}
 
-  static fromRows(rows: { tankId: number; version: number; formalPotentialV: number; formalCoeffVPerK: number; validFromMs: number }[]): CalibrationHistory {
+  static fromRows(rows: CalibrationRow[]): CalibrationHistory {
     const byTank = new Map<number, Cal[]>();
     for (const r of rows) {
       const list = byTank.get(r.tankId) ?? [];
@@ -26,12 +27,7 @@ export class CalibrationHistory {
   }
 
   static async load(pool: Pool): Promise<CalibrationHistory> {
-    const rows: { tank_id: number; version: number; formal_potential_v: number; formal_coeff_v_per_k: number; valid_from: string }[] =
-      await pool.query('SELECT tank_id, version, formal_potential_v, formal_coeff_v_per_k, valid_from FROM calibrations');
-    return CalibrationHistory.fromRows(rows.map((r) => ({
-      tankId: r.tank_id, version: r.version, formalPotentialV: r.formal_potential_v,
-      formalCoeffVPerK: r.formal_coeff_v_per_k ?? 0, validFromMs: fromSqlTs(r.valid_from),
-    })));
+    return CalibrationHistory.fromRows(await lookupsRepository.calibrations(pool));
   }
 
   /** The calibration in force at tsMs: the latest valid_from ≤ tsMs; null before the first one. */

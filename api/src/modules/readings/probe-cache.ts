@@ -1,5 +1,6 @@
 import type { ReferenceElectrode } from '../../../../shared/redox/index.ts';
 import type { Pool } from '../../db/pool.ts';
+import { lookupsRepository, type ProbeRow } from './lookups.repository.ts';
 
 /** Everything the worker needs to convert one probe's readings. */
 export type ProbeEntry = {
@@ -15,24 +16,8 @@ export type ProbeEntry = {
 /** What the pipeline asks of a cache; tests pass a plain object. */
 export type ProbeLookup = { probe(tag: string): ProbeEntry | undefined; hasSite(tag: string): boolean };
 
-type Row = {
-  probe_id: number; probe_tag: string; tank_id: number; site_tag: string; reference_id: string;
-  reference_e25_v: number; reference_coeff_v_per_k: number;
-  version: number | null; formal_potential_v: number | null; formal_coeff_v_per_k: number | null;
-};
-
-const PROBES_SQL = `
-  SELECT p.id AS probe_id, p.tag AS probe_tag, p.tank_id, s.tag AS site_tag, p.reference_id,
-         p.reference_e25_v, p.reference_coeff_v_per_k, c.version, c.formal_potential_v, c.formal_coeff_v_per_k
-    FROM probes p
-    JOIN tanks t ON t.id = p.tank_id
-    JOIN circuits ci ON ci.id = t.circuit_id
-    JOIN sites s ON s.id = ci.site_id
-    LEFT JOIN calibrations c ON c.tank_id = t.id
-     AND c.version = (SELECT MAX(c2.version) FROM calibrations c2 WHERE c2.tank_id = t.id)`;
-
 /** Builds a lookup from query rows (exported for tests and the API's historical import). */
-export function buildLookup(rows: Row[], siteTags: string[]): ProbeLookup {
+export function buildLookup(rows: ProbeRow[], siteTags: string[]): ProbeLookup {
   const probes = new Map<string, ProbeEntry>();
   for (const r of rows) {
     probes.set(r.probe_tag, {
@@ -71,9 +56,8 @@ export class ProbeCache implements ProbeLookup {
   reload(): Promise<void> {
     this.loading ??= (async () => {
       try {
-        const rows: Row[] = await this.pool.query(PROBES_SQL);
-        const sites: { tag: string }[] = await this.pool.query('SELECT tag FROM sites');
-        this.lookup = buildLookup(rows, sites.map((s) => s.tag));
+        const [rows, sites] = [await lookupsRepository.probes(this.pool), await lookupsRepository.siteTags(this.pool)];
+        this.lookup = buildLookup(rows, sites);
         this.loadedAtMs = Date.now();
       } finally {
         this.loading = null;

@@ -14,6 +14,8 @@ export type StoreResult = {
 };
 
 type Stored = { orpMv: number; tempC: number };
+/** The columns of a readings row (a converted reading without its plant names). */
+export type ReadingRow = Omit<ConvertedReading, 'tankId' | 'probeTag' | 'siteTag'>;
 const CHUNK = 1000;
 
 const keyOf = (probeId: number, sqlTs: string) => `${probeId}|${sqlTs}`;
@@ -47,11 +49,13 @@ async function lockExisting(conn: PoolConnection, keys: { probeId: number; ts: s
 const ER_DUP_ENTRY = 1062;
 
 /**
- * Plain multi-row INSERT of readings (never IGNORE): a key that exists fails the whole statement.
+ * The one INSERT of readings. A plain multi-row INSERT (never IGNORE): a key that exists fails
+ * the whole statement. With `reconvert`, an existing row keeps its measurement and takes the new
+ * conversion instead (a recalibration rewrites rows it has locked, so it never adds one).
  * A prepared statement (binary protocol): the server parses the SQL once per row count and no
  * value is escaped into text, about a third faster than a text query of the same rows.
  */
-async function insertRows(conn: PoolConnection, rows: { r: ConvertedReading; ts: string }[]): Promise<void> {
+async function insertRows(conn: PoolConnection, rows: { r: ReadingRow; ts: string }[], reconvert = false): Promise<void> {
   let receivedMs = NaN;
   let received = '';
   // One flat array filled in place (no array per row): this runs for every reading stored.
@@ -65,7 +69,35 @@ async function insertRows(conn: PoolConnection, rows: { r: ConvertedReading; ts:
   }
   await conn.execute(
     `INSERT INTO readings (probe_id, ts, seq, orp_mv, temp_c, eh_v, ratio, ferric_fraction, flag, calibration_version, received_at)
-     VALUES ${placeholders(rows.length, 11)}`, params);
+     VALUES ${placeholders(rows.length, 11)}${reconvert ? RECONVERT : ''}`, params);
+}
+
+const RECONVERT = ` ON DUPLICATE KEY UPDATE eh_v = VALUES(eh_v), ratio = VALUES(ratio), ferric_fraction = VALUES(ferric_fraction),
+  flag = VALUES(flag), calibration_version = VALUES(calibration_version)`;
+
+/** A stored reading's measurement, as a recalibration reads it back. */
+export type StoredReading = { probeId: number; ts: string; seq: number | null; orpMv: number; tempC: number; receivedAt: string };
+
+/**
+ * One page of a probe's readings in time order from `after` (exclusive when `afterExclusive`)
+ * to `before` (exclusive), locked FOR UPDATE so the retention purge cannot delete one before
+ * it is rewritten. Times are SQL text (see toSqlTs) so a page's last key starts the next.
+ */
+export async function lockReadingsPage(
+  conn: PoolConnection, probeId: number, after: string, afterExclusive: boolean, before: string, limit: number,
+): Promise<StoredReading[]> {
+  const rows: { probe_id: number; ts: string; seq: number | null; orp_mv: number; temp_c: number; received_at: string }[] = await conn.query(
+    `SELECT probe_id, ts, seq, orp_mv, temp_c, received_at FROM readings
+      WHERE probe_id = ? AND ts ${afterExclusive ? '>' : '>='} ? AND ts < ? ORDER BY ts LIMIT ${Number(limit)} FOR UPDATE`,
+    [probeId, after, before]);
+  return rows.map((r) => ({ probeId: r.probe_id, ts: r.ts, seq: r.seq, orpMv: r.orp_mv, tempC: r.temp_c, receivedAt: r.received_at }));
+}
+
+/** Writes a new conversion over readings already stored (and locked by lockReadingsPage). */
+export async function rewriteConversions(conn: PoolConnection, readings: ReadingRow[]): Promise<void> {
+  for (let i = 0; i < readings.length; i += CHUNK) {
+    await insertRows(conn, readings.slice(i, i + CHUNK).map((r) => ({ r, ts: toSqlTs(r.tsMs) })), true);
+  }
 }
 
 /**

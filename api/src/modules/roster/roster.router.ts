@@ -3,7 +3,7 @@ import type { Role } from '../../../../shared/schemas/auth.ts';
 import { idParamSchema } from '../../../../shared/schemas/plant.ts';
 import { policySchema, removeShiftSchema, rotationSchema, shiftSchema, shiftsQuerySchema } from '../../../../shared/schemas/roster.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import { rosterService as svc } from './roster.service.ts';
 
 /** Supervisors and admins manage the roster (domain.md 5); everyone sees who is on call. */
@@ -18,7 +18,7 @@ export function rosterRouter(): Router {
   });
   r.get('/shifts', async (req, res) => {
     // Default: yesterday to two weeks ahead, the span the Call roster shows first.
-    const q = req.query.from || req.query.to ? query(shiftsQuerySchema, req) : { from: new Date(Date.now() - DAY).toISOString(), to: new Date(Date.now() + 14 * DAY).toISOString() };
+    const q = req.query.from || req.query.to ? queryParams(shiftsQuerySchema, req) : { from: new Date(Date.now() - DAY).toISOString(), to: new Date(Date.now() + 14 * DAY).toISOString() };
     res.json({ shifts: await svc.shifts(new Date(q.from), new Date(q.to)) });
   });
   r.post('/shifts', requireRole(...ROSTER_ROLES), async (req, res) => {

@@ -4,7 +4,7 @@ import {
   closeShiftSchema, logEntryEditSchema, logEntryInputSchema, shiftListQuerySchema, shiftLogQuerySchema, shiftPatternInputSchema,
 } from '../../../../shared/schemas/shifts.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
-import { body, params, query } from '../../middleware/validate.ts';
+import { body, params, queryParams } from '../../middleware/validate.ts';
 import { shiftLogService } from './shift-log.service.ts';
 import { shiftsService } from './shifts.service.ts';
 
@@ -12,14 +12,14 @@ import { shiftsService } from './shifts.service.ts';
 export function shiftsRouter(): Router {
   const r = Router();
   r.get('/pattern', requireSignIn, async (req, res) => {
-    res.json({ pattern: await shiftsService.pattern(query(shiftLogQuerySchema, req).siteId) });
+    res.json({ pattern: await shiftsService.pattern(queryParams(shiftLogQuerySchema, req).siteId) });
   });
   // A site setting, so plant setup (admin) owns it.
   r.put('/pattern', requireRole('admin'), async (req, res) => {
     res.json({ pattern: await shiftsService.setPattern(body(shiftPatternInputSchema, req), req.user!) });
   });
   r.get('/', requireSignIn, async (req, res) => {
-    const q = query(shiftListQuerySchema, req);
+    const q = queryParams(shiftListQuerySchema, req);
     res.json(await shiftsService.list(q.siteId, q.count));
   });
   r.post('/close', requireRole('supervisor'), async (req, res) => {
@@ -33,7 +33,7 @@ export function shiftLogRouter(): Router {
   const r = Router();
   r.use(requireSignIn);
   r.get('/', async (req, res) => {
-    const q = query(shiftLogQuerySchema, req);
+    const q = queryParams(shiftLogQuerySchema, req);
     res.json(await shiftLogService.log(q.siteId, q.at));
   });
   r.post('/entries', async (req, res) => {
