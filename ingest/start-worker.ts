@@ -1,10 +1,9 @@
 import type { Logger } from 'pino';
-import { createSequelize } from '../api/src/db/sequelize.ts';
+import { Database } from '../api/src/db/database.ts';
 import { logger as rootLogger } from '../api/src/lib/logger.ts';
 import { createAlarmEngine } from '../api/src/modules/alarms/engine.ts';
 import { queueAlarmReadings } from '../api/src/modules/alarms/engine-queue.ts';
 import { INTERNAL_PREFIX } from '../shared/schemas/readings.ts';
-import { createIngestPool } from '../api/src/db/pool.ts';
 import { Flusher } from './flusher.ts';
 import { LivePublisher, toTankLive } from './live.ts';
 import { IngestMetrics } from './metrics.ts';
@@ -54,13 +53,14 @@ export type RunningWorker = {
 export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const log = opts.log ?? rootLogger.child({ component: 'ingest-worker' });
   const retentionDays = opts.retentionDays ?? 90;
-  const pool = createIngestPool(opts.databaseUrl, 4);
+  // The raw pool carries the hot path; the alarm engine reads through Sequelize on the same database.
+  const db = new Database(opts.databaseUrl, { poolMax: 3, rawPoolMax: 4 });
+  const { pool } = db;
   const metrics = new IngestMetrics();
   const cache = new ProbeCache(pool);
   await cache.reload().catch((err: Error) => log.warn({ err: err.message }, 'probe cache not loaded yet; will retry'));
   // Alarms are evaluated from what was committed, off the acknowledgement path.
-  const alarmDb = createSequelize(opts.databaseUrl, 3);
-  const alarms = queueAlarmReadings(createAlarmEngine({ sequelize: alarmDb }), log);
+  const alarms = queueAlarmReadings(createAlarmEngine({ sequelize: db.sequelize }), log);
 
   let live: LivePublisher | null = null;
   let corked: Intake['corked'] | null = null;
@@ -125,8 +125,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
       await Promise.race([intake.client.endAsync(false), new Promise((r) => setTimeout(r, 2_000))]);
       if (!intake.client.disconnected) await intake.client.endAsync(true).catch(() => undefined);
       await alarms.drain();
-      await alarmDb.close().catch(() => undefined);
-      await pool.end().catch(() => undefined);
+      await db.close().catch(() => undefined);
     },
   };
 }

@@ -1,7 +1,9 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { ReferenceElectrode } from '../../../../shared/redox/index.ts';
 import type { CalibrationVersion } from '../../../../shared/schemas/calibration.ts';
+import { rawPool } from '../../db/database.ts';
 import { Calibration, Probe, Tank } from '../../db/models.ts';
+import type { Pool } from '../../db/pool.ts';
 import { CalibrationFitRow } from '../../db/workbench-models.ts';
 
 type VersionRow = {
@@ -13,6 +15,9 @@ type VersionRow = {
 export type ProbeRef = { id: number; tag: string; active: boolean; referenceId: string; toleranceMv: number; reference: ReferenceElectrode };
 
 export const calibrationRepository = {
+  /** The raw pool, for rewriting readings through the readings repository (see recompute.ts). */
+  rawPool: (): Pool => rawPool(Tank.sequelize!),
+
   /** Every version of a tank's calibration, newest first, with what each was fitted from. */
   async versions(tankId: number): Promise<CalibrationVersion[]> {
     const rows = await Tank.sequelize!.query<VersionRow>(

@@ -1,7 +1,6 @@
 import type {
   ApplyResult, CalibrationApplyInput, CalibrationFitInput, CalibrationOverview, FitResult, RecomputeInput, RecomputeResult,
 } from '../../../../shared/schemas/calibration.ts';
-import { rawPool } from '../../db/database.ts';
 import { Tank } from '../../db/models.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
@@ -83,7 +82,7 @@ export const calibrationService = {
     const probes = await repo.probes(tankId);
     const fromMs = Date.parse(input.from);
     const toMs = Date.parse(input.to);
-    const updated = await recomputeReadings(rawPool(Tank.sequelize!), probes, cal, fromMs, toMs, (n) => ({
+    const updated = await recomputeReadings(repo.rawPool(), probes, cal, fromMs, toMs, (n) => ({
       userId, action: 'calibration.recompute', entity: 'tank', entityId: tankId, reason: input.reason,
       after: { version: cal.version, from: input.from, to: input.to, readings: n },
     }));
