@@ -1,3 +1,4 @@
+import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Database, rawPool } from '../../../api/src/db/database.ts';
 import { createSequelize } from '../../../api/src/db/sequelize.ts';
@@ -11,7 +12,7 @@ describe('Database', () => {
   it('when opened, then Sequelize and the raw pool reach the same database, and the raw pool is found from Sequelize', async () => {
     const db = new Database(t.databaseUrl, { poolMax: 2, rawPoolMax: 1 });
     try {
-      const [[viaSequelize]] = (await db.sequelize.query('SELECT DATABASE() AS name')) as [{ name: string }[], unknown];
+      const [viaSequelize] = await db.sequelize.query<{ name: string }>('SELECT DATABASE() AS name', { type: QueryTypes.SELECT });
       const [viaPool] = (await rawPool(db.sequelize).query('SELECT DATABASE() AS name')) as { name: string }[];
       expect(viaSequelize.name).toBe(t.name);
       expect(viaPool.name).toBe(t.name);
