@@ -9,7 +9,7 @@ import { io as connectClient } from 'socket.io-client';
 import { issueToken } from '../../api/src/modules/auth/tokens.ts';
 import { placeholders, toSqlTs, type Pool } from '../../api/src/db/pool.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
-import type { TankLive } from '../../shared/schemas/readings.ts';
+import { ALL_DEVICES_FILTER, type TankLive } from '../../shared/schemas/readings.ts';
 import { latestMessageSchema, latestTopic, parseInternal } from '../../shared/schemas/internal-topics.ts';
 import { runLoad, type LoadOptions } from '../../simulators/plant/load.ts';
 import { SERVICE_PASSWORD, spawnPart, sleep, type Child } from '../../tests/reliability/lib/procs.ts';
@@ -66,13 +66,13 @@ export async function passThrough(load: Load, port: number, o: Omit<LoadOptions,
   });
   let received = 0;
   sub.on('message', () => { received += 1; });
-  await sub.subscribeAsync('ferrisight/v1/#', { qos: 1 });
+  await sub.subscribeAsync(ALL_DEVICES_FILTER, { qos: 1 });
   const t0 = Date.now();
   const r = await runLoad({ ...load, ...o });
   while (received < r.sentMessages) await sleep(20);
   const s = (Date.now() - t0) / 1000;
   // A clean: false session outlives the connection: drop its subscription, or the next run would also feed it.
-  if (persistent) await sub.unsubscribeAsync('ferrisight/v1/#');
+  if (persistent) await sub.unsubscribeAsync(ALL_DEVICES_FILTER);
   await sub.endAsync();
   return (o.batch > 1 ? r.sentReadings : r.sentMessages) / s;
 }
