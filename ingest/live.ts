@@ -1,9 +1,9 @@
 import type { MqttClient } from 'mqtt';
-import { latestTopic, type TankLive } from '../shared/schemas/readings.ts';
-import type { ConvertedReading } from '../api/src/modules/readings/convert.ts';
+import type { ConvertedReading, TankLive } from '../shared/schemas/readings.ts';
+import { latestTopic, type LatestMessage } from '../shared/schemas/internal-topics.ts';
 import { toIsoTs } from '../api/src/db/timestamps.ts';
 
-/** Converted reading → the shape screens show (shared/schemas/readings.ts). */
+/** Converted reading → the shape screens show. */
 export function toTankLive(r: ConvertedReading): TankLive {
   return {
     tankId: r.tankId, probeId: r.probeId, probeTag: r.probeTag, ts: toIsoTs(r.tsMs),
@@ -36,6 +36,9 @@ export class LivePublisher {
       bySite.set(r.siteTag, list);
     }
     if (!this.client.connected) return;
-    for (const [site, readings] of bySite) this.client.publish(latestTopic(site), JSON.stringify({ readings }), { qos: 0 });
+    for (const [site, readings] of bySite) {
+      const message: LatestMessage = { readings };
+      this.client.publish(latestTopic(site), JSON.stringify(message), { qos: 0 });
+    }
   }
 }

@@ -1,6 +1,6 @@
 import mqtt, { type IPublishPacket, type MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
-import { INTERNAL_PREFIX } from '../shared/schemas/readings.ts';
+import { CACHE_INVALIDATE_TOPIC, isInternalTopic } from '../shared/schemas/internal-topics.ts';
 import { decodeMessage } from '../api/src/modules/readings/decode.ts';
 import type { Flusher } from './flusher.ts';
 import type { IngestMetrics } from './metrics.ts';
@@ -21,8 +21,6 @@ export type IntakeOptions = {
   /** Internal control messages (cache invalidation), handled at once and never queued. */
   onInternal: (topic: string, payload: Buffer) => void;
 };
-
-export const INVALIDATE_TOPIC = `${INTERNAL_PREFIX}/cache/invalidate`;
 
 /** Passed to mqtt.js's handleMessage callback to say "no PUBACK from you": it then skips the ack. */
 const NO_AUTO_ACK = new Error('acknowledged after commit');
@@ -64,7 +62,7 @@ export function startIntake(o: IntakeOptions): Intake {
   const subscribed = new Promise<void>((resolve) => { markSubscribed = resolve; });
   client.on('connect', (connack) => {
     o.log.info({ sessionPresent: connack.sessionPresent, mode }, 'connected to broker');
-    const filters = o.topicFilter ? { [o.topicFilter]: { qos: 1 as const }, [INVALIDATE_TOPIC]: { qos: 0 as const } } : { [INVALIDATE_TOPIC]: { qos: 0 as const } };
+    const filters = o.topicFilter ? { [o.topicFilter]: { qos: 1 as const }, [CACHE_INVALIDATE_TOPIC]: { qos: 0 as const } } : { [CACHE_INVALIDATE_TOPIC]: { qos: 0 as const } };
     client.subscribe(filters, (err) => {
       if (err) o.log.error({ err: err.message }, 'subscribe failed');
       else markSubscribed();
@@ -75,7 +73,7 @@ export function startIntake(o: IntakeOptions): Intake {
 
   client.handleMessage = (packet: IPublishPacket, done) => {
     const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
-    if (packet.topic.startsWith(`${INTERNAL_PREFIX}/`)) {
+    if (isInternalTopic(packet.topic)) {
       o.onInternal(packet.topic, payload);
       done();
       return;

@@ -1,6 +1,6 @@
 import type { MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
-import { TOPIC_PREFIX } from '../shared/schemas/readings.ts';
+import { ALL_DEVICES_FILTER, batchTopic, readingTopic, siteTopicFilter } from '../shared/schemas/readings.ts';
 import type { Pool } from '../api/src/db/pool.ts';
 import { lookupsRepository } from '../api/src/modules/readings/lookups.repository.ts';
 
@@ -44,16 +44,16 @@ export function sliceOf(key: string, count: number): number {
  * This slice's filters, and every other filter the plan could have given it: unsubscribing
  * those on each sync also clears what an earlier plan (another N) left in the same session.
  */
-export function sliceFilters(plan: SlicePlan, tags: Tag[], baseFilter = `${TOPIC_PREFIX}/#`): { mine: string[]; others: string[] } {
+export function sliceFilters(plan: SlicePlan, tags: Tag[], baseFilter = ALL_DEVICES_FILTER): { mine: string[]; others: string[] } {
   if (plan.sharedGroup) return { mine: [`$share/${plan.sharedGroup}/${baseFilter}`], others: [] };
   const mine = new Set<string>();
   // Every filter either mode could have subscribed: switching mode or N leaves nothing behind.
   const others = new Set<string>([baseFilter]);
   for (const { siteTag, probeTag } of tags) {
     const site = sliceOf(siteTag, plan.count);
-    const siteAll = `${TOPIC_PREFIX}/${siteTag}/#`;
-    const batch = `${TOPIC_PREFIX}/${siteTag}/batch`;
-    const reading = probeTag ? `${TOPIC_PREFIX}/${siteTag}/${probeTag}/reading` : null;
+    const siteAll = siteTopicFilter(siteTag);
+    const batch = batchTopic(siteTag);
+    const reading = probeTag ? readingTopic(siteTag, probeTag) : null;
     [siteAll, batch, reading].forEach((f) => f && others.add(f));
     if (plan.by === 'site' && site === plan.index) mine.add(siteAll);
     if (plan.by === 'probe' && site === plan.index) mine.add(batch);
@@ -83,7 +83,7 @@ export class SliceSubscriptions {
     private readonly plan: SlicePlan,
     private readonly tags: () => Promise<Tag[]>,
     private readonly log: Logger,
-    private readonly baseFilter = `${TOPIC_PREFIX}/#`,
+    private readonly baseFilter = ALL_DEVICES_FILTER,
   ) {
     // A fresh connection may carry an older plan's session: always resend the full set.
     client.on('connect', () => {

@@ -3,17 +3,16 @@ import { Database } from '../api/src/db/database.ts';
 import { logger as rootLogger } from '../api/src/lib/logger.ts';
 import { createAlarmEngine } from '../api/src/modules/alarms/engine.ts';
 import { queueAlarmReadings } from '../api/src/modules/alarms/engine-queue.ts';
-import { INTERNAL_PREFIX } from '../shared/schemas/readings.ts';
+import { ALL_DEVICES_FILTER } from '../shared/schemas/readings.ts';
+import { CACHE_INVALIDATE_TOPIC, INGEST_HEALTH_TOPIC, cacheInvalidateSchema, parseInternal } from '../shared/schemas/internal-topics.ts';
 import { Flusher } from './flusher.ts';
 import { LivePublisher, toTankLive } from './live.ts';
 import { IngestMetrics } from './metrics.ts';
-import { INVALIDATE_TOPIC, startIntake, type AckMode, type Intake } from './mqtt-intake.ts';
+import { startIntake, type AckMode, type Intake } from './mqtt-intake.ts';
 import { ProbeCache } from '../api/src/modules/readings/probe-cache.ts';
 import { deleteExpiredReadings } from '../api/src/modules/readings/retention.repository.ts';
 import { Lease } from '../api/src/cluster/lease.ts';
 import { loadTags, SliceSubscriptions, type SlicePlan } from './slices.ts';
-
-export const HEALTH_TOPIC = `${INTERNAL_PREFIX}/ingest/health`;
 
 export type WorkerOptions = {
   databaseUrl: string;
@@ -79,12 +78,19 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   });
   const reloadCache = () => cache.reload().catch((err: Error) => log.warn({ err: err.message }, 'probe cache reload failed'));
   const plan = opts.slice ?? null;
-  const topicFilter = opts.topicFilter ?? 'ferrisight/v1/#';
+  const topicFilter = opts.topicFilter ?? ALL_DEVICES_FILTER;
   const intake = startIntake({
     mqttUrl: opts.mqttUrl, username: opts.username, password: opts.password, clientId: opts.clientId,
     topicFilter: plan ? null : topicFilter, ackMode: opts.ackMode ?? 'pipelined', flusher, metrics, log,
-    onInternal: (topic) => {
-      if (topic === INVALIDATE_TOPIC) void refresh();
+    onInternal: (topic, payload) => {
+      if (topic !== CACHE_INVALIDATE_TOPIC) return;
+      try {
+        parseInternal(cacheInvalidateSchema, topic, payload);
+      } catch (err) {
+        log.warn({ err: (err as Error).message }, 'ignored unreadable internal message');
+        return;
+      }
+      void refresh();
     },
   });
   // Sliced: subscriptions follow the plant (a new site or probe joins its slice at the next refresh).
@@ -97,7 +103,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const health = () => {
     const snap = metrics.snapshot({ queued: flusher.queued, mqttConnected: intake.client.connected });
     log.info(snap, 'ingest health');
-    if (intake.client.connected) intake.client.publish(HEALTH_TOPIC, JSON.stringify(snap), { qos: 0, retain: true });
+    if (intake.client.connected) intake.client.publish(INGEST_HEALTH_TOPIC, JSON.stringify(snap), { qos: 0, retain: true });
   };
   let retentionRunning = false;
   const retention = async () => {

@@ -5,7 +5,8 @@
 import mqtt from 'mqtt';
 import pino from 'pino';
 import { parseSimArgs, simEnv, type SimArgs, type SimEnv } from './plant/config.ts';
-import { SIM_COMMAND_TOPIC, simCommandSchema } from './plant/faults.ts';
+import { SIM_COMMAND_TOPIC } from '../shared/schemas/internal-topics.ts';
+import { simCommandSchema } from '../shared/schemas/simulator.ts';
 import { runLoad } from './plant/load.ts';
 import { ensureLoadProbes } from './plant/load-probes.ts';
 import { loadSimProbes } from './plant/plant-db.ts';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ALL_DEVICES_FILTER } from '../../shared/schemas/readings.ts';
 
 /**
  * The only reader of process.env for the API and ingest processes. The start script
@@ -21,7 +22,7 @@ const schema = z.object({
   WEB_DIST: z.string().default('dist/web'),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(90),
   INGEST_CLIENT_ID: z.string().default('ferrisight-ingest-1'),
-  INGEST_TOPIC_FILTER: z.string().default('ferrisight/v1/#'),
+  INGEST_TOPIC_FILTER: z.string().default(ALL_DEVICES_FILTER),
   // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).
   MQTT_PORT: z.coerce.number().int().min(1).max(65535).default(8472),
   MQTT_MAX_CONNECTIONS: z.coerce.number().int().min(1).default(2000),

@@ -9,7 +9,8 @@ import { io as connectClient } from 'socket.io-client';
 import { issueToken } from '../../api/src/modules/auth/tokens.ts';
 import { placeholders, toSqlTs, type Pool } from '../../api/src/db/pool.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
-import { latestTopic, type TankLive } from '../../shared/schemas/readings.ts';
+import { ALL_DEVICES_FILTER, type TankLive } from '../../shared/schemas/readings.ts';
+import { latestMessageSchema, latestTopic, parseInternal } from '../../shared/schemas/internal-topics.ts';
 import { runLoad, type LoadOptions } from '../../simulators/plant/load.ts';
 import { SERVICE_PASSWORD, spawnPart, sleep, type Child } from '../../tests/reliability/lib/procs.ts';
 import { quantile } from './bench-db.ts';
@@ -65,13 +66,13 @@ export async function passThrough(load: Load, port: number, o: Omit<LoadOptions,
   });
   let received = 0;
   sub.on('message', () => { received += 1; });
-  await sub.subscribeAsync('ferrisight/v1/#', { qos: 1 });
+  await sub.subscribeAsync(ALL_DEVICES_FILTER, { qos: 1 });
   const t0 = Date.now();
   const r = await runLoad({ ...load, ...o });
   while (received < r.sentMessages) await sleep(20);
   const s = (Date.now() - t0) / 1000;
   // A clean: false session outlives the connection: drop its subscription, or the next run would also feed it.
-  if (persistent) await sub.unsubscribeAsync('ferrisight/v1/#');
+  if (persistent) await sub.unsubscribeAsync(ALL_DEVICES_FILTER);
   await sub.endAsync();
   return (o.batch > 1 ? r.sentReadings : r.sentMessages) / s;
 }
@@ -105,9 +106,9 @@ export async function measureLatency(o: {
   const toSocket: number[] = [];
   const total: number[] = [];
   const sub = await mqtt.connectAsync(`mqtt://127.0.0.1:${o.mqttPort}`, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: `ferrisight-lat-${Date.now()}`, protocolVersion: 4, reconnectPeriod: 0 });
-  sub.on('message', (_t, buf) => {
+  sub.on('message', (t, buf) => {
     const at = Date.now();
-    for (const r of JSON.parse(buf.toString()).readings as TankLive[]) {
+    for (const r of parseInternal(latestMessageSchema, t, buf).readings) {
       committedAt.set(`${r.probeTag}|${r.ts}`, at);
       commit.push(at - Date.parse(r.ts));
     }

@@ -1,4 +1,5 @@
 import { MAX_PAYLOAD_BYTES, TOPIC_PREFIX } from '../../shared/schemas/readings.ts';
+import { isInternalTopic } from '../../shared/schemas/internal-topics.ts';
 import type { Identity } from './identity.ts';
 
 /** Client ids starting with this belong to Ferrisight's own services (ingest, API, simulator control). */
@@ -21,7 +22,7 @@ export function publishRefusal(identity: Identity | undefined, topic: string, pa
   if (topic.startsWith('$')) return 'publishing to $ topics is not allowed';
   if (payloadBytes > MAX_PAYLOAD_BYTES) return `payload of ${payloadBytes} bytes exceeds ${MAX_PAYLOAD_BYTES}`;
   if (identity.kind === 'service') return null;
-  if (topic.startsWith('ferrisight/internal/')) return 'internal topics are for the service account only';
+  if (isInternalTopic(topic)) return 'internal topics are for the service account only';
   if (!topic.startsWith(`${TOPIC_PREFIX}/${identity.siteTag}/`)) {
     return `device '${identity.username}' may publish only under ${TOPIC_PREFIX}/${identity.siteTag}/`;
   }

@@ -1,16 +1,8 @@
 import type { Logger } from 'pino';
-import { INTERNAL_PREFIX, parseTopic } from '../../shared/schemas/readings.ts';
+import { parseTopic } from '../../shared/schemas/readings.ts';
 import { inTransaction, type Pool } from '../../api/src/db/pool.ts';
 import { insertDeadLetters, type DeadLetter } from '../../api/src/modules/readings/dead-letters.repository.ts';
 import { decodeMessage } from '../../api/src/modules/readings/decode.ts';
-
-/**
- * Where a screened-out message goes instead of its own topic: nobody subscribes to it, so the
- * broker neither forwards it nor stores it in the worker's session.
- */
-export const SCREENED_TOPIC = `${INTERNAL_PREFIX}/edge/screened`;
-/** The broker's retained health snapshot (shared/schemas/ingest-health.ts BrokerHealth). */
-export const BROKER_HEALTH_TOPIC = `${INTERNAL_PREFIX}/broker/health`;
 
 /**
  * The dead letter for a device message that the shared decoder refuses as a whole, or null when

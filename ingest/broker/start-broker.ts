@@ -9,7 +9,8 @@ import { logger as rootLogger } from '../../api/src/lib/logger.ts';
 import { createIngestPool } from '../../api/src/db/pool.ts';
 import { clientIdRefusal, publishRefusal, subscribeRefusal } from './acl.ts';
 import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
-import { BROKER_HEALTH_TOPIC, EdgeDeadLetters, SCREENED_TOPIC, screenMessage } from './edge-screen.ts';
+import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
+import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
 
 export type BrokerOptions = {

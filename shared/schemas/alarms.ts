@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { ALARM_KINDS, KIND_INFO, type AlarmKind, type Priority } from '../alarms/kinds.ts';
-import { ALARM_STATES, MAX_SHELVE_MIN, type AlarmHow, type AlarmState } from '../alarms/states.ts';
+import { ALARM_KINDS, KIND_INFO, PRIORITIES, type AlarmKind, type Priority } from '../alarms/kinds.ts';
+import { ALARM_HOW, ALARM_STATES, MAX_SHELVE_MIN, type AlarmState } from '../alarms/states.ts';
 
 /** Alarm definitions, lifecycle actions and views: used by the API, the engine and the Alarm desk forms. */
 const text = (max: number, what: string) => z.string().trim().min(1, `Enter ${what}`).max(max);
@@ -118,12 +118,16 @@ export type AlarmView = {
   rationalisation: Rationalisation; lastEventId: number;
 };
 
-export type AlarmEventView = {
-  id: number; instanceId: number; definitionId: number; tankId: number; tankTag: string; siteTag: string;
-  alarmKind: AlarmKind; priority: Priority; kind: string; fromState: AlarmState; toState: AlarmState;
-  conditionActive: boolean; at: string; byUserId: number | null; byName: string | null; how: AlarmHow;
-  comment: string | null; value: number | null; limit: number | null;
-};
+/** One alarm lifecycle event as screens get it (socket.io `alarm:event` and the events list). */
+export const alarmEventViewSchema = z.object({
+  id: z.number().int().positive(), instanceId: z.number().int(), definitionId: z.number().int(), tankId: z.number().int(),
+  tankTag: z.string(), siteTag: z.string(),
+  alarmKind: z.enum(ALARM_KINDS), priority: z.literal(PRIORITIES), kind: z.string(),
+  fromState: z.enum(ALARM_STATES), toState: z.enum(ALARM_STATES),
+  conditionActive: z.boolean(), at: z.string(), byUserId: z.number().int().nullable(), byName: z.string().nullable(), how: z.enum(ALARM_HOW),
+  comment: z.string().nullable(), value: z.number().nullable(), limit: z.number().nullable(),
+});
+export type AlarmEventView = z.infer<typeof alarmEventViewSchema>;
 
 export type ActiveAlarmsResponse = { alarms: AlarmView[]; lastEventId: number; serverTime: string };
 export type AlarmSummary = { byPriority: Record<Priority, { total: number; unacknowledged: number }>; shelved: number; outOfService: number; suppressed: number; lastEventId: number };

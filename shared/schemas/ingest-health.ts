@@ -1,32 +1,39 @@
-/** Snapshot the ingest worker publishes (retained) on ferrisight/internal/v1/ingest/health; shown in Plant setup. */
-export type IngestHealth = {
-  at: string;
-  startedAt: string;
-  messages: number;
-  readingsStored: number;
-  duplicates: number;
-  conflicts: number;
-  deadLetters: number;
-  flushes: number;
-  flushErrors: number;
-  /** Messages received and not yet acknowledged. */
-  queued: number;
-  /** Commit latency of recent flushes, ms. */
-  flushP50Ms: number | null;
-  flushP99Ms: number | null;
-  /** Receive → commit of recent messages, ms (what a device waits for its PUBACK, minus network). */
-  ackP99Ms: number | null;
-  /** now − newest stored reading ts, s; null before the first reading. */
-  lagS: number | null;
-  dbUp: boolean;
-  mqttConnected: boolean;
-};
+import { z } from 'zod';
 
-/** Snapshot the embedded broker publishes (retained) on ferrisight/internal/v1/broker/health. */
-export type BrokerHealth = {
-  at: string;
-  startedAt: string;
+const count = z.number().int().min(0);
+const msOrNull = z.number().finite().nullable();
+
+/** Snapshot the ingest worker publishes (retained) on its health topic; shown in Plant setup. */
+export const ingestHealthSchema = z.object({
+  at: z.string(),
+  startedAt: z.string(),
+  messages: count,
+  readingsStored: count,
+  duplicates: count,
+  conflicts: count,
+  deadLetters: count,
+  flushes: count,
+  flushErrors: count,
+  /** Messages received and not yet acknowledged. */
+  queued: count,
+  /** Commit latency of recent flushes, ms. */
+  flushP50Ms: msOrNull,
+  flushP99Ms: msOrNull,
+  /** Receive → commit of recent messages, ms (what a device waits for its PUBACK, minus network). */
+  ackP99Ms: msOrNull,
+  /** now − newest stored reading ts, s; null before the first reading. */
+  lagS: msOrNull,
+  dbUp: z.boolean(),
+  mqttConnected: z.boolean(),
+});
+export type IngestHealth = z.infer<typeof ingestHealthSchema>;
+
+/** Snapshot the embedded broker publishes (retained) on its health topic. */
+export const brokerHealthSchema = z.object({
+  at: z.string(),
+  startedAt: z.string(),
   /** Device messages that broke the device contract, dead-lettered by the broker itself. */
-  deadLetteredAtEdge: number;
-  connectedClients: number;
-};
+  deadLetteredAtEdge: count,
+  connectedClients: count,
+});
+export type BrokerHealth = z.infer<typeof brokerHealthSchema>;

@@ -1,22 +1,7 @@
-import { z } from 'zod';
-import { INTERNAL_PREFIX } from '../../shared/schemas/readings.ts';
+import type { ActiveFault, SimCommand, SimFault } from '../../shared/schemas/simulator.ts';
 import type { Random } from './tank-model.ts';
 
-export const SIM_COMMAND_TOPIC = `${INTERNAL_PREFIX}/sim/command`;
-export const SIM_STATE_TOPIC = `${INTERNAL_PREFIX}/sim/state`;
-
-export const FAULTS = ['fouling', 'flatline', 'noisy', 'comms-loss', 'feed-upset', 'pump-trip', 'clear'] as const;
-export type FaultName = Exclude<(typeof FAULTS)[number], 'clear'>;
-
-/** `{fault, probeTag, action}`; fault 'clear' (or action 'clear' with fault 'clear') clears every fault of that probe. */
-export const simCommandSchema = z.object({
-  fault: z.enum(FAULTS),
-  probeTag: z.string().min(1).max(40),
-  action: z.enum(['start', 'clear']).default('start'),
-});
-export type SimCommand = z.infer<typeof simCommandSchema>;
-
-type Active = { fault: FaultName; sinceMs: number };
+type Active = { fault: SimFault; sinceMs: number };
 
 /** Which faults run on which probe, and how each one bends a probe reading. */
 export class FaultBoard {
@@ -43,12 +28,12 @@ export class FaultBoard {
     return true;
   }
 
-  has(probeTag: string, fault: FaultName): boolean {
+  has(probeTag: string, fault: SimFault): boolean {
     return (this.active.get(probeTag) ?? []).some((a) => a.fault === fault);
   }
 
   /** For the retained state topic (the API's admin control shows it). */
-  list(): { fault: FaultName; probeTag: string; since: string }[] {
+  list(): ActiveFault[] {
     return [...this.active].flatMap(([probeTag, list]) => list.map((a) => ({ fault: a.fault, probeTag, since: new Date(a.sinceMs).toISOString() })));
   }
 
@@ -59,7 +44,7 @@ export class FaultBoard {
    */
   probeMv(probeTag: string, trueMv: number, nowMs: number, random: Random): number {
     const list = this.active.get(probeTag) ?? [];
-    const since = (f: FaultName) => list.find((a) => a.fault === f)?.sinceMs;
+    const since = (f: SimFault) => list.find((a) => a.fault === f)?.sinceMs;
     const frozen = this.frozenMv.get(probeTag);
     if (since('flatline') !== undefined && frozen !== undefined) return frozen;
     let mv = trueMv + (random() - 0.5) * 3;

@@ -2,7 +2,9 @@ import mqtt, { type MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
 import { ratioToOrpMv } from '../../shared/redox/index.ts';
 import { readingTopic } from '../../shared/schemas/readings.ts';
-import { FaultBoard, SIM_COMMAND_TOPIC, SIM_STATE_TOPIC, simCommandSchema, type SimCommand } from './faults.ts';
+import { FaultBoard } from './faults.ts';
+import { SIM_COMMAND_TOPIC, SIM_STATE_TOPIC, parseInternal } from '../../shared/schemas/internal-topics.ts';
+import { simCommandSchema, type SimCommand, type SimState } from '../../shared/schemas/simulator.ts';
 import type { SimProbe } from './plant-db.ts';
 import { initialState, ratioOf, stepTank, type TankState } from './tank-model.ts';
 
@@ -39,7 +41,10 @@ export function runPlant(o: PlantOptions): { stop: () => Promise<void>; board: F
   device.on('error', (err) => o.log.warn({ err: err.message }, 'device connection error'));
 
   let control: MqttClient | null = null;
-  const publishState = () => control?.publish(SIM_STATE_TOPIC, JSON.stringify({ faults: board.list(), at: new Date().toISOString() }), { qos: 1, retain: true });
+  const publishState = () => {
+    const state: SimState = { faults: board.list(), at: new Date().toISOString() };
+    control?.publish(SIM_STATE_TOPIC, JSON.stringify(state), { qos: 1, retain: true });
+  };
   if (o.service) {
     control = mqtt.connect(o.mqttUrl, {
       username: o.service.username, password: o.service.password, clientId: `ferrisight-sim-${process.pid}`,
@@ -50,10 +55,10 @@ export function runPlant(o: PlantOptions): { stop: () => Promise<void>; board: F
       publishState();
     });
     control.on('error', (err) => o.log.warn({ err: err.message }, 'control connection error'));
-    control.on('message', (_topic, payload) => {
+    control.on('message', (topic, payload) => {
       let cmd: SimCommand;
       try {
-        cmd = simCommandSchema.parse(JSON.parse(payload.toString('utf8')));
+        cmd = parseInternal(simCommandSchema, topic, payload);
       } catch (err) {
         o.log.warn({ err: (err as Error).message }, 'ignored bad sim command');
         return;

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { applyAction } from '../../api/src/modules/alarms/lifecycle.ts';
 import { attachRealtime } from '../../api/src/realtime/socket.ts';
 import { ROLES, type Role } from '../../shared/schemas/auth.ts';
-import type { AlarmEventView } from '../../shared/schemas/alarms.ts';
+import { alarmEventViewSchema, type AlarmEventView } from '../../shared/schemas/alarms.ts';
 import { createAlarmTestApi, instancesOf, onlyDefinition, withoutTimerDefinitions, type AlarmTestApi } from './helpers.ts';
 
 let t: AlarmTestApi;
@@ -74,6 +74,8 @@ describe('alarm events over socket.io', () => {
     await until(() => clients.every((c) => c.events.some((e) => e.id === id)));
     const e = clients[0].events.find((x) => x.id === id)!;
     expect(e).toMatchObject({ tankTag: 'A1', siteTag: 'kestrel', kind: 'activated', toState: 'unacknowledged', priority: 1 });
+    // The web parses every event with this schema and drops what does not fit.
+    expect(alarmEventViewSchema.safeParse(e).error).toBeUndefined();
     for (const c of clients) c.socket.disconnect();
   });
 

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MqttClient } from 'mqtt';
-import { batchTopic, latestTopic, readingTopic, type TankLive } from '../../shared/schemas/readings.ts';
+import { batchTopic, readingTopic, type TankLive } from '../../shared/schemas/readings.ts';
+import { latestTopic } from '../../shared/schemas/internal-topics.ts';
 import { startWorker, type RunningWorker } from '../../ingest/start-worker.ts';
 import type { RunningBroker } from '../../ingest/broker/start-broker.ts';
 import type { Pool } from '../../api/src/db/pool.ts';

@@ -10,7 +10,8 @@
  */
 import mqtt from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { MAX_PAYLOAD_BYTES, latestTopic, readingTopic } from '../../shared/schemas/readings.ts';
+import { MAX_PAYLOAD_BYTES, readingTopic } from '../../shared/schemas/readings.ts';
+import { latestTopic } from '../../shared/schemas/internal-topics.ts';
 import type { TestDatabase } from '../helpers/test-db.ts';
 import { quantile } from '../../bench/lib/bench-db.ts';
 import { compareStored, deadLetterSummary, formatComparison, waitForCount } from './lib/compare.ts';

@@ -6,7 +6,7 @@
  */
 import mqtt from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { latestTopic } from '../../shared/schemas/readings.ts';
+import { latestTopic } from '../../shared/schemas/internal-topics.ts';
 import { quantile } from '../../bench/lib/bench-db.ts';
 import type { TestDatabase } from '../helpers/test-db.ts';
 import { compareStored, formatComparison, waitForCount } from './lib/compare.ts';

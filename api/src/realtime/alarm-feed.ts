@@ -1,7 +1,8 @@
-import type { Server, Socket } from 'socket.io';
+import { alarmSinceSchema } from '../../../shared/schemas/socket-events.ts';
 import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
 import { alarmsRepository } from '../modules/alarms/alarms.repository.ts';
+import type { RealtimeServer, RealtimeSocket } from './realtime-types.ts';
 
 /**
  * Alarm events to browsers. The table is the feed: every ~100 ms the API reads alarm_events
@@ -9,7 +10,7 @@ import { alarmsRepository } from '../modules/alarms/alarms.repository.ts';
  * the event (ingest, notifier, another API node). Event ids commit in order (see the alarms
  * migration), so "id > last" never skips one.
  *
- * Catch-up: a client sends the last id it has in `handshake.auth.lastAlarmEventId` (or later
+ * Catch-up: a client sends the last id it has in the handshake's `lastAlarmEventId` (or later
  * with `alarm:since`) and gets every event after it from the table; when more than REPLAY_MAX
  * are missing it gets `alarm:resync` and reloads the lists instead. Clients drop ids they have.
  *
@@ -21,7 +22,7 @@ export const REPLAY_MAX = 2000;
 const POLL_MS = 100;
 const REPLAY_INTERVAL_MS = 1000;
 
-export function attachAlarmFeed(io: Server, opts: { pollMs?: number; lease?: Lease } = {}) {
+export function attachAlarmFeed(io: RealtimeServer, opts: { pollMs?: number; lease?: Lease } = {}) {
   let last: number | null = null;
   let busy = false;
 
@@ -51,7 +52,7 @@ export function attachAlarmFeed(io: Server, opts: { pollMs?: number; lease?: Lea
   const timer = setInterval(poll, opts.pollMs ?? POLL_MS);
 
   /** Joins the site rooms before reading, so nothing falls between the replay and the live feed. */
-  const replay = async (socket: Socket, after: number) => {
+  const replay = async (socket: RealtimeSocket, after: number) => {
     const sites = await alarmsRepository.siteTags();
     await Promise.all(sites.map((tag) => socket.join(`site:${tag}`)));
     const events = await alarmsRepository.eventsAfter(after, REPLAY_MAX + 1);
@@ -59,15 +60,16 @@ export function attachAlarmFeed(io: Server, opts: { pollMs?: number; lease?: Lea
     for (const e of events) socket.emit('alarm:event', e);
   };
 
-  const onConnection = (socket: Socket) => {
-    const from = Number(socket.handshake.auth?.lastAlarmEventId);
-    if (Number.isInteger(from) && from >= 0) replay(socket, from).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
+  const onConnection = (socket: RealtimeSocket) => {
+    const from = socket.data.lastAlarmEventId;
+    if (from !== undefined) replay(socket, from).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
     // Every signed-in role sees every alarm (domain.md 5), so the only check is the session the handshake already passed;
     // one replay per second per socket keeps a misbehaving client from loading the database.
     let lastReplayMs = 0;
-    socket.on('alarm:since', (after: unknown) => {
-      const n = Number(after);
-      if (!Number.isInteger(n) || n < 0 || Date.now() - lastReplayMs < REPLAY_INTERVAL_MS) return;
+    socket.on('alarm:since', (after) => {
+      const parsed = alarmSinceSchema.safeParse(after);
+      if (!parsed.success || Date.now() - lastReplayMs < REPLAY_INTERVAL_MS) return;
+      const n = parsed.data;
       lastReplayMs = Date.now();
       replay(socket, n).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
     });

@@ -1,18 +1,23 @@
 import { EventEmitter } from 'node:events';
 import mqtt, { type MqttClient } from 'mqtt';
-import type { BrokerHealth, IngestHealth } from '../../../shared/schemas/ingest-health.ts';
-import { INTERNAL_PREFIX, type TankLive } from '../../../shared/schemas/readings.ts';
+import { brokerHealthSchema, ingestHealthSchema, type BrokerHealth, type IngestHealth } from '../../../shared/schemas/ingest-health.ts';
+import {
+  BROKER_HEALTH_TOPIC, CACHE_INVALIDATE_TOPIC, INGEST_HEALTH_TOPIC, LATEST_FILTER, SIM_COMMAND_TOPIC, SIM_STATE_TOPIC,
+  latestMessageSchema, parseInternal,
+} from '../../../shared/schemas/internal-topics.ts';
+import type { TankLive } from '../../../shared/schemas/readings.ts';
+import { simStateSchema, type ActiveFault, type SimCommand } from '../../../shared/schemas/simulator.ts';
 import { logger } from '../lib/logger.ts';
 
-export type SimFault = { fault: string; probeTag: string };
-export type SimCommand = SimFault & { action: 'start' | 'clear' };
+type BusEvents = { latest: [readings: TankLive[]]; status: [connected: boolean] };
 
 /**
  * The API's link to the broker: the ingest worker publishes converted readings on internal
  * topics after each commit; the database stays the record, so QoS 0 is enough here.
+ * Every payload is parsed on arrival; one that does not fit its schema is logged and dropped.
  */
-export class Bus extends EventEmitter {
-  simState: SimFault[] = [];
+export class Bus extends EventEmitter<BusEvents> {
+  simState: ActiveFault[] = [];
   ingestHealth: IngestHealth | null = null;
   brokerHealth: BrokerHealth | null = null;
   private client: MqttClient;
@@ -21,7 +26,7 @@ export class Bus extends EventEmitter {
     super();
     this.client = mqtt.connect(url, { username, password, clientId, protocolVersion: 4, clean: true, reconnectPeriod: 2000 });
     this.client.on('connect', () => {
-      this.client.subscribe([`${INTERNAL_PREFIX}/+/latest`, `${INTERNAL_PREFIX}/sim/state`, `${INTERNAL_PREFIX}/ingest/health`, `${INTERNAL_PREFIX}/broker/health`], { qos: 0 });
+      this.client.subscribe([LATEST_FILTER, SIM_STATE_TOPIC, INGEST_HEALTH_TOPIC, BROKER_HEALTH_TOPIC], { qos: 0 });
       this.emit('status', true);
     });
     this.client.on('close', () => this.emit('status', false));
@@ -31,22 +36,21 @@ export class Bus extends EventEmitter {
 
   private onMessage(topic: string, payload: Buffer): void {
     try {
-      const data = JSON.parse(payload.toString('utf8'));
-      if (topic.endsWith('/latest')) this.emit('latest', data.readings as TankLive[]);
-      else if (topic.endsWith('/sim/state')) this.simState = data.faults ?? [];
-      else if (topic.endsWith('/ingest/health')) this.ingestHealth = data;
-      else if (topic.endsWith('/broker/health')) this.brokerHealth = data;
+      if (topic === SIM_STATE_TOPIC) this.simState = parseInternal(simStateSchema, topic, payload).faults;
+      else if (topic === INGEST_HEALTH_TOPIC) this.ingestHealth = parseInternal(ingestHealthSchema, topic, payload);
+      else if (topic === BROKER_HEALTH_TOPIC) this.brokerHealth = parseInternal(brokerHealthSchema, topic, payload);
+      else this.emit('latest', parseInternal(latestMessageSchema, topic, payload).readings);
     } catch (err) {
       logger.warn({ topic, err: (err as Error).message }, 'unreadable internal message');
     }
   }
 
   async simCommand(cmd: SimCommand): Promise<void> {
-    await this.client.publishAsync(`${INTERNAL_PREFIX}/sim/command`, JSON.stringify(cmd), { qos: 1 });
+    await this.client.publishAsync(SIM_COMMAND_TOPIC, JSON.stringify(cmd), { qos: 1 });
   }
 
   async invalidateProbeCache(): Promise<void> {
-    await this.client.publishAsync(`${INTERNAL_PREFIX}/cache/invalidate`, '{}', { qos: 1 });
+    await this.client.publishAsync(CACHE_INVALIDATE_TOPIC, '{}', { qos: 1 });
   }
 
   get connected(): boolean {

@@ -1,6 +1,6 @@
 import type { TankLive } from '../../../shared/schemas/readings.ts';
+import type { ProbeFreshness } from '../../../shared/schemas/socket-events.ts';
 
-export type Freshness = { probeId: number; tankId: number; stale: boolean; lastTs: string | null };
 type ProbeMeta = { probeId: number; tankId: number; siteTag: string; intervalS: number };
 
 /**
@@ -46,8 +46,8 @@ export class LiveFeed {
   }
 
   /** Freshness changes since the last call. */
-  freshnessChanges(nowMs: number): Array<Freshness & { siteTag: string }> {
-    const out: Array<Freshness & { siteTag: string }> = [];
+  freshnessChanges(nowMs: number): Array<ProbeFreshness & { siteTag: string }> {
+    const out: Array<ProbeFreshness & { siteTag: string }> = [];
     for (const p of this.probes.values()) {
       const last = this.lastSeen.get(p.probeId);
       const isStale = last === undefined || nowMs - last > 3 * p.intervalS * 1000;

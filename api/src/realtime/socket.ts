@@ -1,5 +1,6 @@
 import type { Server as HttpServer } from 'node:http';
 import { Server, type ServerOptions } from 'socket.io';
+import { socketAuthSchema } from '../../../shared/schemas/socket-events.ts';
 import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
 import { sessionEvents } from '../lib/session-events.ts';
@@ -9,6 +10,7 @@ import { plantRepository } from '../modules/plant/plant.repository.ts';
 import type { Bus } from './bus.ts';
 import { attachAlarmFeed } from './alarm-feed.ts';
 import { LiveFeed } from './live-feed.ts';
+import type { RealtimeServer } from './realtime-types.ts';
 
 function cookieValue(header: string | undefined, name: string): string | undefined {
   for (const part of (header ?? '').split(';')) {
@@ -26,25 +28,26 @@ export type ClusterRealtime = { serverOptions: Partial<ServerOptions>; alarmLeas
 
 /** `cluster`: several API nodes (api/src/cluster/socket-cluster.ts, README "Scaling out"). */
 export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus, cluster?: ClusterRealtime) {
-  const io = new Server(httpServer, { serveClient: false, cors: { origin: false }, ...cluster?.serverOptions });
+  const io: RealtimeServer = new Server(httpServer, { serveClient: false, cors: { origin: false }, ...cluster?.serverOptions });
   // Every node gets every live value from the broker itself: each serves its own sockets, else a client would get one copy per node.
   const live = cluster ? io.local : io;
   const feed = new LiveFeed();
 
   io.use(async (socket, next) => {
-    const token = (socket.handshake.auth?.token as string | undefined) ?? cookieValue(socket.handshake.headers.cookie, SESSION_COOKIE);
+    const handshake = socketAuthSchema.parse(socket.handshake.auth);
+    const token = handshake.token ?? cookieValue(socket.handshake.headers.cookie, SESSION_COOKIE);
     const user = await auth.authenticate(token).catch(() => null);
     if (!user) {
       // ASVS 16.3.1: a presented but refused credential is an authentication failure worth a log line.
       if (token) logger.warn({ ip: socket.handshake.address, origin: socket.handshake.headers.origin }, 'socket handshake refused: invalid or revoked session');
       return next(new Error('unauthorized'));
     }
-    socket.data.user = user;
+    socket.data = { user, lastAlarmEventId: handshake.lastAlarmEventId };
     next();
   });
 
   io.on('connection', async (socket) => {
-    const user = socket.data.user as { id: number; expMs: number };
+    const { user } = socket.data;
     socket.join(`user:${user.id}`);
     const sites = new Set((await plantRepository.probeIntervals()).map((p) => p.siteTag));
     for (const s of sites) socket.join(`site:${s}`);

@@ -1,7 +1,10 @@
+import type { ProbeFreshness } from '@shared/schemas/socket-events';
+
 /** A probe is stale after three expected intervals without a reading (same rule as the server). */
 export const STALE_INTERVALS = 3;
 
-export type Freshness = { ageS: number | null; stale: boolean };
+/** What a screen shows about a probe's newest reading: its age and whether it is stale. */
+export type FreshnessView = { ageS: number | null; stale: boolean };
 
 /**
  * @param latestTs ISO time of the newest reading, or null
@@ -13,8 +16,8 @@ export function freshnessOf(
   latestTs: string | null | undefined,
   intervalS: number,
   nowMs: number,
-  serverStale?: { stale: boolean; lastTs: string | null },
-): Freshness {
+  serverStale?: Pick<ProbeFreshness, 'stale' | 'lastTs'>,
+): FreshnessView {
   if (!latestTs) return { ageS: null, stale: true };
   const ageS = Math.max(0, (nowMs - Date.parse(latestTs)) / 1000);
   const byAge = ageS > STALE_INTERVALS * intervalS;

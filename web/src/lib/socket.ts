@@ -1,29 +1,17 @@
 import { useEffect, useRef, useSyncExternalStore } from 'react';
 import { io, type Socket } from 'socket.io-client';
-import type { TankLive } from '@shared/schemas/readings';
-import type { AlarmEventView } from '@shared/schemas/alarms';
+import type { z } from 'zod';
+import {
+  serverEventSchemas, type ClientToServerEvents, type ServerEventName, type ServerToClientEvents, type SocketAuth,
+} from '@shared/schemas/socket-events';
 
-/** Payload of probe:freshness: stale after three expected intervals without a reading. */
-export type ProbeFreshness = { probeId: number; tankId: number; stale: boolean; lastTs: string | null };
-
-type ServerEvents = {
-  'tank:latest': (readings: TankLive[]) => void;
-  'probe:freshness': (f: ProbeFreshness) => void;
-  'session:expired': () => void;
-  /** One alarm lifecycle event; ids are monotonic, replayed after a reconnect (may arrive twice or out of order). */
-  'alarm:event': (e: AlarmEventView) => void;
-  /** Too much was missed to replay: reload the alarm lists. */
-  'alarm:resync': (p: { lastEventId: number }) => void;
-};
-type ClientEvents = { 'alarm:since': (afterId: number) => void };
-type EventName = keyof ServerEvents;
-type Payload<E extends EventName> = Parameters<ServerEvents[E]>;
+type EventName = ServerEventName;
+type Payload<E extends EventName> = Parameters<ServerToClientEvents[E]>;
 
 /** connecting: first attempt; reconnecting: lost and retrying; offline: given up for now (still retrying in the background). */
 export type ConnectionState = 'connecting' | 'connected' | 'reconnecting' | 'offline';
 
 const FAILURES_BEFORE_OFFLINE = 3;
-const EVENTS: EventName[] = ['tank:latest', 'probe:freshness', 'session:expired', 'alarm:event', 'alarm:resync'];
 
 /** Newest alarm event id this page has; sent on every (re)connect so the server replays what was missed. */
 let alarmResumeId: number | null = null;
@@ -36,7 +24,7 @@ export function requestAlarmsSince(id: number): void {
   socket?.emit('alarm:since', id);
 }
 
-let socket: Socket<ServerEvents, ClientEvents> | null = null;
+let socket: Socket<ServerToClientEvents, ClientToServerEvents> | null = null;
 let state: ConnectionState = 'offline';
 let failures = 0;
 const stateListeners = new Set<() => void>();
@@ -52,6 +40,12 @@ function emitLocal<E extends EventName>(event: E, ...args: Payload<E>) {
   for (const l of eventListeners.get(event) ?? []) (l as (...a: Payload<E>) => void)(...args);
 }
 
+function check<T>(event: EventName, schema: z.ZodType<T>, raw: unknown, deliver: (value: T) => void): void {
+  const parsed = schema.safeParse(raw);
+  if (parsed.success) deliver(parsed.data);
+  else console.warn(`ignored ${event}: payload does not fit the contract`, parsed.error.message);
+}
+
 function onBrowserOnline() {
   if (socket && !socket.connected) socket.connect();
 }
@@ -64,10 +58,13 @@ export function connectSocket(): void {
   if (socket) return;
   failures = 0;
   setState('connecting');
-  const s: Socket<ServerEvents, ClientEvents> = io({
+  const s: Socket<ServerToClientEvents, ClientToServerEvents> = io({
     path: '/socket.io', withCredentials: true, transports: ['websocket', 'polling'],
     // Called on every attempt, so a reconnect carries the newest id seen.
-    auth: (cb) => cb(alarmResumeId === null ? {} : { lastAlarmEventId: alarmResumeId }),
+    auth: (cb) => {
+      const auth: SocketAuth = alarmResumeId === null ? {} : { lastAlarmEventId: alarmResumeId };
+      cb(auth);
+    },
   });
   socket = s;
   s.on('connect', () => {
@@ -92,9 +89,13 @@ export function connectSocket(): void {
     failures += 1;
     setState(failures >= FAILURES_BEFORE_OFFLINE ? 'offline' : state === 'connecting' ? 'connecting' : 'reconnecting');
   });
-  for (const event of EVENTS) {
-    s.on(event, ((...args: Payload<typeof event>) => emitLocal(event, ...args)) as never);
-  }
+  // Parsed, not trusted: a payload that does not fit the contract is dropped with a console note.
+  const sch = serverEventSchemas;
+  s.on('tank:latest', (raw: unknown) => check('tank:latest', sch['tank:latest'], raw, (v) => emitLocal('tank:latest', v)));
+  s.on('probe:freshness', (raw: unknown) => check('probe:freshness', sch['probe:freshness'], raw, (v) => emitLocal('probe:freshness', v)));
+  s.on('alarm:event', (raw: unknown) => check('alarm:event', sch['alarm:event'], raw, (v) => emitLocal('alarm:event', v)));
+  s.on('alarm:resync', (raw: unknown) => check('alarm:resync', sch['alarm:resync'], raw, (v) => emitLocal('alarm:resync', v)));
+  s.on('session:expired', () => emitLocal('session:expired'));
   window.addEventListener('online', onBrowserOnline);
   window.addEventListener('offline', onBrowserOffline);
 }
@@ -125,7 +126,7 @@ export function useIsLive(): boolean {
 }
 
 /** Subscribes to a server event for the lifetime of the component; the handler may change between renders. */
-export function useSocketEvent<E extends EventName>(event: E, handler: ServerEvents[E]): void {
+export function useSocketEvent<E extends EventName>(event: E, handler: ServerToClientEvents[E]): void {
   const ref = useRef(handler);
   useEffect(() => {
     ref.current = handler;

@@ -1,16 +1,9 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { AppError } from '../../lib/app-error.ts';
 import { requireRole } from '../../middleware/auth.ts';
 import { body } from '../../middleware/validate.ts';
 import type { Bus } from '../../realtime/bus.ts';
-
-export const SIM_FAULTS = ['fouling', 'flatline', 'noisy', 'comms-loss', 'feed-upset', 'pump-trip'] as const;
-const simCommandSchema = z.object({
-  fault: z.enum(SIM_FAULTS),
-  probeTag: z.string().trim().min(1).max(40),
-  action: z.enum(['start', 'clear']),
-});
+import { simCommandSchema } from '../../../../shared/schemas/simulator.ts';
 
 /** Admin-only: simulator faults for demos and training, ingest health. */
 export function adminRouter(bus?: Bus): Router {

@@ -1,26 +1,11 @@
 import { orpToRatio } from '../../../../shared/redox/index.ts';
-import { MAX_FUTURE_SKEW_MS } from '../../../../shared/schemas/readings.ts';
+import { MAX_FUTURE_SKEW_MS, type ConvertedReading } from '../../../../shared/schemas/readings.ts';
 import { decodeMessage, type Decoded, type DecodedReading, type Rejection } from './decode.ts';
 import type { ProbeLookup } from './probe-cache.ts';
 import { parseIsoTs } from '../../db/timestamps.ts';
 
 /** A converted reading, ready for storeReadings. */
-export type ConvertedReading = {
-  probeId: number;
-  tankId: number;
-  probeTag: string;
-  siteTag: string;
-  tsMs: number;
-  seq: number | null;
-  orpMv: number;
-  tempC: number;
-  ehV: number;
-  ratio: number;
-  ferricFraction: number;
-  flag: 'ok' | 'outside-range';
-  calibrationVersion: number;
-  receivedAtMs: number;
-};
+export type { ConvertedReading };
 
 export type PipelineOptions = { receivedAtMs: number; retentionDays: number };
 export type PipelineResult = { readings: ConvertedReading[]; rejections: Rejection[] };

@@ -1,19 +1,10 @@
-import type { z } from 'zod';
+import { z } from 'zod';
 import {
-  MAX_BATCH_READINGS, MAX_PAYLOAD_BYTES, batchReadingSchema, parseTopic, readingMessageSchema,
+  MAX_PAYLOAD_BYTES, batchMessageSchema, batchReadingSchema, parseTopic, readingMessageSchema, type DecodedReading,
 } from '../../../../shared/schemas/readings.ts';
+import { describeIssues } from '../../../../shared/schemas/issues.ts';
 
-/** A reading that passed the device contract, not yet matched to a probe. */
-export type DecodedReading = {
-  siteTag: string;
-  probeTag: string;
-  ts: string;
-  orpMv: number;
-  tempC: number;
-  seq: number;
-  /** Position in a batch message; null for a single-reading message. */
-  index: number | null;
-};
+export type { DecodedReading };
 
 /** Why (part of) a message was refused; `payload` is what gets dead-lettered. */
 export type Rejection = { reason: string; payload: Buffer };
@@ -22,12 +13,10 @@ export type Decoded = { readings: DecodedReading[]; rejections: Rejection[] };
 
 const utf8 = new TextDecoder('utf-8', { fatal: true });
 
-/** Compact zod issues as "path: message; path: message". */
-export function describeIssues(error: z.ZodError, prefix = ''): string {
-  return error.issues
-    .map((i) => `${[prefix, ...i.path.map(String)].filter(Boolean).join('.') || '(root)'}: ${i.message}`)
-    .join('; ');
-}
+export { describeIssues };
+
+/** A batch whose envelope passed batchMessageSchema, elements not yet judged. */
+const batchEnvelopeSchema = z.object({ readings: z.array(z.unknown()) });
 
 /**
  * Bytes + topic → readings that satisfy the contract in shared/schemas/readings.ts.
@@ -61,24 +50,24 @@ export function decodeMessage(topic: string, payload: Buffer): Decoded {
   return decodeBatch(siteTag, json, payload);
 }
 
+/**
+ * A batch through batchMessageSchema. Issues inside readings[i] refuse that element alone (its
+ * reason carries the index and the element is dead-lettered by itself); any other issue refuses
+ * the whole message.
+ */
 function decodeBatch(siteTag: string, json: unknown, payload: Buffer): Decoded {
-  const envelope = json as { readings?: unknown } | null;
-  const extraKeys = envelope && typeof envelope === 'object' && !Array.isArray(envelope)
-    ? Object.keys(envelope).filter((k) => k !== 'readings') : [];
-  const list = envelope && typeof envelope === 'object' ? envelope.readings : undefined;
-  if (!Array.isArray(list) || extraKeys.length > 0) {
-    const why = extraKeys.length > 0 ? `unrecognized keys ${extraKeys.join(', ')}` : 'readings must be an array';
-    return { readings: [], rejections: [{ reason: `invalid batch: ${why}`, payload }] };
+  const parsed = batchMessageSchema.safeParse(json);
+  // Fields copied by name: object rest/spread here cost more than the whole schema check.
+  if (parsed.success) {
+    return { readings: parsed.data.readings.map((d, index) => ({ siteTag, probeTag: d.probe, ts: d.ts, orpMv: d.orpMv, tempC: d.tempC, seq: d.seq, index })), rejections: [] };
   }
-  if (list.length < 1 || list.length > MAX_BATCH_READINGS) {
-    const reason = `invalid batch: readings must hold 1–${MAX_BATCH_READINGS} items (got ${list.length})`;
-    return { readings: [], rejections: [{ reason, payload }] };
-  }
+  const envelope = parsed.error.issues.filter((i) => i.path[0] !== 'readings' || typeof i.path[1] !== 'number');
+  if (envelope.length > 0) return { readings: [], rejections: [{ reason: `invalid batch: ${envelope.map((i) => i.message).join('; ')}`, payload }] };
+  // Only elements are wrong: judge each on its own so the good ones go on.
   const out: Decoded = { readings: [], rejections: [] };
-  list.forEach((item, index) => {
+  batchEnvelopeSchema.parse(json).readings.forEach((item, index) => {
     const one = batchReadingSchema.safeParse(item);
     if (one.success) {
-      // Fields copied by name: object rest/spread here cost more than the whole schema check.
       const d = one.data;
       out.readings.push({ siteTag, probeTag: d.probe, ts: d.ts, orpMv: d.orpMv, tempC: d.tempC, seq: d.seq, index });
     } else {

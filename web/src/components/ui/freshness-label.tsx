@@ -1,8 +1,8 @@
 import { formatAge } from '../../lib/format';
-import type { Freshness } from '../../lib/freshness';
+import type { FreshnessView } from '../../lib/freshness';
 
 /** "12 s ago" while fresh; "Stale · 4 min ago" struck through in grey when not. */
-export function FreshnessLabel({ freshness, className = '' }: { freshness: Freshness; className?: string }) {
+export function FreshnessLabel({ freshness, className = '' }: { freshness: FreshnessView; className?: string }) {
   if (freshness.ageS == null) return <span className={`text-offline-ink ${className}`}>No reading yet</span>;
   if (freshness.stale) {
     return (

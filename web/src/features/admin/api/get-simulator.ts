@@ -1,13 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import { z } from 'zod';
+import { simStateSchema, type ActiveFault } from '@shared/schemas/simulator';
 import { api } from '../../../lib/api-client';
 import { adminKeys } from './admin-keys';
 
-export const SIM_FAULTS = ['fouling', 'flatline', 'noisy', 'comms-loss', 'feed-upset', 'pump-trip'] as const;
-export type SimFault = (typeof SIM_FAULTS)[number];
-export type ActiveFault = { fault: SimFault; probeTag: string };
+const simulatorResponseSchema = z.object({ faults: simStateSchema.shape.faults });
 
 export async function getSimulator(signal?: AbortSignal): Promise<ActiveFault[]> {
-  return (await api.get<{ faults: ActiveFault[] }>('/api/admin/simulator', { signal })).faults;
+  return simulatorResponseSchema.parse(await api.get<unknown>('/api/admin/simulator', { signal })).faults;
 }
 
 export const simulatorQueryOptions = () =>

@@ -1,12 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { adminKeys } from './admin-keys';
-import type { SimFault } from './get-simulator';
-
-export type SimCommand = { fault: SimFault; probeTag: string; action: 'start' | 'clear' };
+import type { SimCommandInput } from '@shared/schemas/simulator';
 
 /** 202: the simulator applies it within a moment, so the list is refreshed shortly after. */
-export function setSimulatorFault(cmd: SimCommand): Promise<unknown> {
+export function setSimulatorFault(cmd: SimCommandInput): Promise<unknown> {
   return api.post<unknown>('/api/admin/simulator', cmd);
 }
 

@@ -3,7 +3,8 @@ import { Button } from '../../../components/ui/button';
 import { CautionNote } from '../../../components/ui/caution-note';
 import { FormError, SelectField } from '../../../components/ui/field';
 import { Panel } from '../../../components/ui/panel';
-import { SIM_FAULTS, useSimulator, type SimFault } from '../api/get-simulator';
+import { SIM_FAULTS, type SimFault } from '@shared/schemas/simulator';
+import { useSimulator } from '../api/get-simulator';
 import { useSetSimulatorFault } from '../api/set-simulator-fault';
 
 export const FAULT_LABELS: Record<SimFault, string> = {

@@ -1,6 +1,6 @@
 import type { TankSummary } from '@shared/schemas/plant';
-import type { ProbeFreshness } from '../../../lib/socket';
-import { freshnessOf, type Freshness } from '../../../lib/freshness';
+import type { ProbeFreshness } from '@shared/schemas/socket-events';
+import { freshnessOf, type FreshnessView } from '../../../lib/freshness';
 import {
   bandAsMv,
   bandPosition,
@@ -14,7 +14,7 @@ export type TankStatus = {
   /** offline: out of service; no-probe / no-reading: nothing to show; stale: a value, but too old to trust. */
   kind: 'offline' | 'no-probe' | 'no-reading' | 'stale' | 'live';
   position: BandPosition | null;
-  freshness: Freshness;
+  freshness: FreshnessView;
   factor: number | null;
   bandMv: BandMv | null;
   outsideRange: boolean;

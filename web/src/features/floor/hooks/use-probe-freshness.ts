@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ProbeFreshness } from '../../../lib/socket';
+import type { ProbeFreshness } from '@shared/schemas/socket-events';
 import { plantKeys } from '../api/plant-keys';
 
 export type FreshnessByProbe = Record<number, ProbeFreshness>;

@@ -8,7 +8,7 @@ import { FreshnessLabel } from '../../../components/ui/freshness-label';
 import { PriorityPill } from '../../../components/ui/priority-pill';
 import { Quantity } from '../../../components/ui/quantity';
 import { formatDate, formatDateTime, formatEhV, formatFixed, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
-import type { Freshness } from '../../../lib/freshness';
+import type { FreshnessView } from '../../../lib/freshness';
 import { bandAsMv, bandPosition, uncertaintyFactor } from '../../../lib/redox-view';
 import { useTankAlarm, useTankSilencedAlarms } from '../../../lib/tank-alarms';
 
@@ -41,7 +41,7 @@ function publishedReference(id: string) {
   }
 }
 
-type Props = { tank: TankSummary; timeZone: string; freshness: Freshness; alarmsHref?: string; definitionsHref?: string };
+type Props = { tank: TankSummary; timeZone: string; freshness: FreshnessView; alarmsHref?: string; definitionsHref?: string };
 
 export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHref }: Props) {
   const { probe, calibration, latest, band } = tank;
