@@ -1,7 +1,7 @@
 import { QueryTypes } from 'sequelize';
 import type { EffectiveBandChange } from '../../../../shared/digest/band-spans.ts';
 import type { DigestEvent, Section } from '../../../../shared/schemas/digest.ts';
-import { wallTimeOf } from '../../../../shared/shifts/time-zone.ts';
+import { wallTimeOf } from '../../../../shared/time/site-time.ts';
 import { Site } from '../../db/models.ts';
 import { logger } from '../../lib/logger.ts';
 import { sqlTs } from '../shifts/shifts.repository.ts';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { addDays, localDateOf, zonedTimeToUtc } from '@shared/shifts/time-zone';
+import { addDays, localDateOf, zonedTimeToUtc } from '@shared/time/site-time';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { serverNow } from '../../../lib/clock';
