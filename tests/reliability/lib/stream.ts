@@ -6,6 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 import { crc32 } from 'node:zlib';
+import { toSqlTs } from '../../../api/src/db/timestamps.ts';
 import { batchTopic } from '../../../shared/schemas/readings.ts';
 
 export type StreamProbe = { tag: string; id: number };
@@ -28,14 +29,13 @@ export type Expected = {
   seqAbove: number;
 };
 
-const sqlTs = (ms: number) => new Date(ms).toISOString().slice(0, 23).replace('T', ' ');
 
 /**
  * The text MariaDB's CONCAT_WS(',', probe_id, seq, ts, orp_mv) produces for a stored row.
  * orpMv is kept to whole or half millivolts so JS and MariaDB print the double the same way.
  */
 export function rowText(r: Pick<StreamReading, 'probeId' | 'seq' | 'ts' | 'orpMv'>): string {
-  return `${r.probeId},${r.seq},${sqlTs(Date.parse(r.ts))},${r.orpMv}`;
+  return `${r.probeId},${r.seq},${toSqlTs(Date.parse(r.ts))},${r.orpMv}`;
 }
 
 /** Running Expected: readings are added one by one, so a long soak keeps no per-reading state. */

@@ -1,6 +1,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { recomputeRollups } from '../readings/rollups.repository.ts';
 import type { PoolConnection } from '../../db/pool.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 import { orpToRatio } from '../../../../shared/redox/index.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { ProbeRef } from './calibration.repository.ts';
@@ -10,7 +11,6 @@ type Reading = { probe_id: number; ts: string; orp_mv: number; temp_c: number };
 
 const PAGE = 5000;
 const MINUTE_MS = 60_000;
-const sqlTs = (ms: number) => new Date(ms).toISOString().slice(0, 23).replace('T', ' ');
 
 /**
  * Re-converts a tank's stored readings in [from, to) with one calibration version, inside the
@@ -23,13 +23,13 @@ export async function recomputeReadings(
 ): Promise<number> {
   let updated = 0;
   for (const probe of probes) {
-    let after = sqlTs(fromMs);
+    let after = toSqlTs(fromMs);
     let afterInclusive = false;
     for (;;) {
       const rows = await sequelize.query<Reading>(
         `SELECT probe_id, DATE_FORMAT(ts, '%Y-%m-%d %H:%i:%s.%f') AS ts, orp_mv, temp_c FROM readings
           WHERE probe_id = ? AND ts ${afterInclusive ? '>' : '>='} ? AND ts < ? ORDER BY ts LIMIT ${PAGE} FOR UPDATE`,
-        { replacements: [probe.id, after, sqlTs(toMs)], type: QueryTypes.SELECT, transaction },
+        { replacements: [probe.id, after, toSqlTs(toMs)], type: QueryTypes.SELECT, transaction },
       );
       if (rows.length === 0) break;
       const values: unknown[] = [];
