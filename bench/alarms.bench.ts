@@ -48,8 +48,8 @@ try {
   const common = { DATABASE_URL: db.databaseUrl, MQTT_URL: `mqtt://127.0.0.1:${mqttPort}`, SERVICE_MQTT_PASSWORD: SERVICE_PASSWORD, JWT_SECRET: SECRET };
   await startBrokerProcess({ port: mqttPort, dataDir, databaseUrl: db.databaseUrl });
   startWorkerProcess({ mqttPort, databaseUrl: db.databaseUrl, clientId: 'ferrisight-ingest-bench' });
-  spawnPart('simulators/mail-catcher.ts', { SMTP_PORT: String(smtpPort), DATA_DIR: dataDir });
-  spawnPart('api/src/server.ts', { ...common, PORT: String(apiPort), HOST: '127.0.0.1', WEB_DIST: '/nonexistent', DATA_DIR: dataDir, FERRISIGHT_PROC: 'api' });
+  spawnPart('simulators/mail-catcher.ts', { SMTP_PORT: String(smtpPort), FERRISIGHT_DATA_DIR: dataDir });
+  spawnPart('api/src/server.ts', { ...common, PORT: String(apiPort), HOST: '127.0.0.1', WEB_DIST: '/nonexistent', FERRISIGHT_DATA_DIR: dataDir, FERRISIGHT_PROC: 'api' });
   spawnPart('api/src/workers/notifier.ts', { ...common, PORT: String(apiPort), SMTP_URL: `smtp://127.0.0.1:${smtpPort}`, FERRISIGHT_PROC: 'notifier' });
   await Promise.all([waitForPort(apiPort), waitForPort(smtpPort)]);
 

@@ -40,7 +40,7 @@ export type AppDeps = {
   rawRetentionDays?: number;
   /** JWT_SECRET: signs the acknowledge links in escalation mail (omitted: links show "not set up"). */
   ackSecret?: string;
-  /** Where the local mail catcher stores what it receives (DATA_DIR/mail). */
+  /** Where the local mail catcher stores what it receives (FERRISIGHT_DATA_DIR/mail). */
   mailDir?: string;
 };
 
