@@ -48,8 +48,8 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'GET', path: '/api/probe-checks/replacements', allowed: ALL },
   { method: 'POST', path: '/api/probe-checks/replacements', allowed: ['metallurgist', 'admin'], body: {} },
   { method: 'GET', path: '/api/dose/:id', allowed: ALL },
-  { method: 'GET', path: '/api/workbench/settings', allowed: ALL },
-  { method: 'PUT', path: '/api/workbench/settings', allowed: ['admin'], body: {} },
+  { method: 'GET', path: '/api/site-settings', allowed: ALL },
+  { method: 'PUT', path: '/api/site-settings', allowed: ['admin'], body: {} },
   // Shift log, Shift digest and readings in/out (issue 7): everyone writes the log and reads the digest; supervisors hand over.
   { method: 'GET', path: '/api/shifts/pattern', allowed: ALL },
   { method: 'PUT', path: '/api/shifts/pattern', allowed: ['admin'], body: {} },
