@@ -81,9 +81,6 @@ export function transition(from: AlarmStatus, action: AlarmAction): TransitionRe
 /** True when the action is allowed from this status (for offering buttons). */
 export const canApply = (from: AlarmStatus, action: AlarmAction): boolean => transition(from, action).ok;
 
-/** An instance is open from leaving normal until it returns to normal. */
-export const isOpen = (s: AlarmStatus): boolean => s.state !== 'normal';
-
 /** The event kind recorded for an action (past tense, as shown in the timeline). */
 export const EVENT_KIND: Record<AlarmAction, string> = {
   activate: 'activated',
@@ -97,9 +94,6 @@ export const EVENT_KIND: Record<AlarmAction, string> = {
   unsuppress: 'unsuppressed',
   comment: 'commented',
 };
-/** Non-transition entries of the history (escalation mail queued). */
-export const NOTE_KINDS = ['escalated'] as const;
-export type AlarmEventKind = (typeof EVENT_KIND)[AlarmAction] | (typeof NOTE_KINDS)[number];
 
 /** Longest shelve allowed (the rule: at most 12 h). */
 export const MAX_SHELVE_MIN = 12 * 60;

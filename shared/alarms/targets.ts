@@ -32,8 +32,6 @@ export const ALARM_TARGETS = {
   mixLow: { value: 0.8, source: ISA, confidence: 'M' },
 } as const satisfies Record<string, Target>;
 
-export type TargetName = keyof typeof ALARM_TARGETS;
-
 /** "(ISA-18.2, from memory)" or "(EEMUA 191 via published benchmarking)" for labels. */
 export function sourceNote(t: Target): string {
   return t.confidence === 'M' ? `${t.source}, from memory` : t.source;
