@@ -1,5 +1,5 @@
 /**
- * npm run bench:alarms — issue 5 "Speed": with 2,000 readings/s of background load (the
+ * npm run bench:alarms — alarm latency: with 2,000 readings/s of background load (the
  * simulator's load mode), p50/p99 from publishing an out-of-band reading to (1) the alarm event
  * at a socket.io client of the API process and (2) its escalation row in mail_outbox, with the
  * first escalation step due at once. Everything runs as on a plant: broker, ingest worker (which

@@ -1,7 +1,7 @@
 /**
  * node --import tsx bench/digest.bench.ts — the Shift digest of a whole week for the demo plant
  * (10 tanks, 1-minute and 1-hour rollups, ~100 000 minute rows) timed end to end in the service, plus its JSON
- * size. Target (issue 7): under a second.
+ * size. Target: under a second.
  */
 import { fileURLToPath } from 'node:url';
 import { initModels } from '../api/src/db/models.ts';

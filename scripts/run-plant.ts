@@ -83,7 +83,7 @@ if (SIMULATOR !== 'on' && SIMULATOR !== 'off') {
   process.exit(1);
 }
 if (env.INGEST_SHARED_GROUP && !env.MQTT_URL) {
-  // aedes accepts $share/… subscriptions and delivers nothing to them (handbook stack.md).
+  // aedes accepts $share/… subscriptions and delivers nothing to them (aedes has no shared subscriptions).
   fail('INGEST_SHARED_GROUP needs a broker with shared subscriptions (set MQTT_URL); with the embedded broker use INGEST_SLICE_BY instead');
   process.exit(1);
 }

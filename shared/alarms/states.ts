@@ -1,5 +1,5 @@
 /**
- * Alarm lifecycle after ISA-18.2 / IEC 62682 (states named as in domain.md 7.6 [S]).
+ * Alarm lifecycle after ISA-18.2 / IEC 62682 (states named as in those standards).
  * Pure and browser-safe: the API, the engine and the Alarm desk share this one table, so a
  * transition the server refuses is one the screen never offers.
  *
@@ -95,5 +95,5 @@ export const EVENT_KIND: Record<AlarmAction, string> = {
   comment: 'commented',
 };
 
-/** Longest shelve allowed (the rule: at most 12 h). */
+/** Longest shelve allowed: 12 h, so a shelved alarm is looked at again within a day's two shifts. */
 export const MAX_SHELVE_MIN = 12 * 60;

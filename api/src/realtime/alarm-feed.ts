@@ -72,7 +72,7 @@ export function attachAlarmFeed(io: Server, opts: { db?: () => Sequelize; pollMs
   const onConnection = (socket: Socket) => {
     const from = Number(socket.handshake.auth?.lastAlarmEventId);
     if (Number.isInteger(from) && from >= 0) replay(socket, from).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
-    // Every signed-in role sees every alarm (domain.md 5), so the only check is the session the handshake already passed;
+    // Every signed-in role sees every alarm, so the only check is the session the handshake already passed;
     // one replay per second per socket keeps a misbehaving client from loading the database.
     let lastReplayMs = 0;
     socket.on('alarm:since', (after: unknown) => {

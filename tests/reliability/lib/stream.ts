@@ -1,5 +1,5 @@
 /**
- * The numbered stream behind every fault-injection run (reliability.md §6 "ground truth"):
+ * The numbered stream behind every fault-injection run:
  * each probe gets its own sequence 1, 2, 3…; ts and orpMv are pure functions of (probe, seq),
  * so a reading sent twice is byte-identical and the generator can state, without looking at
  * the database, what COUNT, seq range and BIT_XOR(CRC32(…)) the readings table must show.
@@ -18,7 +18,7 @@ export type Expected = {
   count: number;
   /** probe id → { count, min seq, max seq } */
   perProbe: Map<number, { count: number; lo: number; hi: number }>;
-  /** XOR of CRC32('probeId,seq,YYYY-MM-DD HH:MM:SS.mmm,orpMv'), unsigned 32-bit (reliability.md §6). */
+  /** XOR of CRC32('probeId,seq,YYYY-MM-DD HH:MM:SS.mmm,orpMv'), unsigned 32-bit. */
   checksum: number;
   /**
    * XOR of the first 32 bits of MD5 of the same text. CRC32 is affine over GF(2), so XORs of
