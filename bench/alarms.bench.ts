@@ -1,5 +1,5 @@
 /**
- * npm run bench:alarms — issue 5 "Speed": with 2,000 readings/s of background load (the
+ * npm run bench:alarms — alarm latency: with 2,000 readings/s of background load (the
  * simulator's load mode), p50/p99 from publishing an out-of-band reading to (1) the alarm event
  * at a socket.io client of the API process and (2) its escalation row in mail_outbox, with the
  * first escalation step due at once. Everything runs as on a plant: broker, ingest worker (which
@@ -48,8 +48,8 @@ try {
   const common = { DATABASE_URL: db.databaseUrl, MQTT_URL: `mqtt://127.0.0.1:${mqttPort}`, SERVICE_MQTT_PASSWORD: SERVICE_PASSWORD, JWT_SECRET: SECRET };
   await startBrokerProcess({ port: mqttPort, dataDir, databaseUrl: db.databaseUrl });
   startWorkerProcess({ mqttPort, databaseUrl: db.databaseUrl, clientId: 'ferrisight-ingest-bench' });
-  spawnPart('simulators/mail-catcher.ts', { SMTP_PORT: String(smtpPort), DATA_DIR: dataDir });
-  spawnPart('api/src/server.ts', { ...common, PORT: String(apiPort), HOST: '127.0.0.1', WEB_DIST: '/nonexistent', DATA_DIR: dataDir, FERRISIGHT_PROC: 'api' });
+  spawnPart('simulators/mail-catcher.ts', { SMTP_PORT: String(smtpPort), FERRISIGHT_DATA_DIR: dataDir });
+  spawnPart('api/src/server.ts', { ...common, PORT: String(apiPort), HOST: '127.0.0.1', WEB_DIST: '/nonexistent', FERRISIGHT_DATA_DIR: dataDir, FERRISIGHT_PROC: 'api' });
   spawnPart('api/src/workers/notifier.ts', { ...common, PORT: String(apiPort), SMTP_URL: `smtp://127.0.0.1:${smtpPort}`, FERRISIGHT_PROC: 'notifier' });
   await Promise.all([waitForPort(apiPort), waitForPort(smtpPort)]);
 

@@ -1,11 +1,12 @@
 /**
  * node --import tsx bench/digest.bench.ts — the Shift digest of a whole week for the demo plant
  * (10 tanks, 1-minute and 1-hour rollups, ~100 000 minute rows) timed end to end in the service, plus its JSON
- * size. Target (issue 7): under a second.
+ * size. Target: under a second.
  */
 import { fileURLToPath } from 'node:url';
 import { initModels } from '../api/src/db/models.ts';
 import { Database } from '../api/src/db/database.ts';
+import { toSqlTs } from '../api/src/db/timestamps.ts';
 import { digestService } from '../api/src/modules/digest/digest.service.ts';
 import { seedDemo } from '../scripts/seed.ts';
 import { median, startBenchDb } from './lib/bench-db.ts';
@@ -31,7 +32,7 @@ export async function runDigestBench(databaseUrl: string): Promise<{ medianMs: n
           if (i % 997 < 20) continue; // a 20-minute gap now and then
           const lr = 1.1 + 0.4 * Math.sin(i / 300 + id);
           const orp = 440 + 40 * Math.sin(i / 300 + id);
-          const ts = new Date(start + i * 60_000).toISOString().slice(0, 19).replace('T', ' ');
+          const ts = toSqlTs(start + i * 60_000);
           rows.push(`(${id},'${ts}',12,${orp - 3},${orp + 3},${orp},0.6,0.61,0.605,41.5,42.5,42,${lr},${lr - 0.02},${lr + 0.02})`);
         }
         await seq.query(`INSERT INTO rollups_1m VALUES ${rows.join(',')}`);

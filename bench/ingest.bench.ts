@@ -1,5 +1,5 @@
 /**
- * npm run bench:ingest — issue 4 "Speed": the simulator's load mode (simulators/plant/load.ts)
+ * npm run bench:ingest — ingest throughput and latency: the simulator's load mode (simulators/plant/load.ts)
  * through the real broker, ingest worker (child processes) and a private MariaDB, with the
  * machine's ceilings measured in the same run and printed side by side:
  *   (a) readings/s, 1,000-reading batch messages   vs  MariaDB multi-row INSERT of the same rows
@@ -59,7 +59,7 @@ try {
   // Offered at 8,000 msg/s, at least the broker's pass-through, so the pipeline sets the pace.
   const b = await runLoad({ ...load, tanks: 200, hz: 40, batch: 1, connections: 200, durationS: SECONDS, seqStart: 2_000_000 });
   const bRate = (await storedRate(pool, before.count, t0, b.sentReadings, 300_000)).rate;
-  // (c) latency at G1's shape (200 msg/s × 10 readings), with the API pushing to a socket.io client.
+  // (c) latency at the soak test's shape (200 msg/s × 10 readings), with the API pushing to a socket.io client.
   const lat = await measureLatency({ pool, databaseUrl: db.databaseUrl, mqttPort: port, load, seconds: Math.max(10, SECONDS * 2), track });
 
   // Ceilings, same run, same machine.

@@ -5,6 +5,7 @@
  */
 import { QueryTypes } from 'sequelize';
 import { createSequelize } from '../api/src/db/sequelize.ts';
+import { toSqlTs } from '../api/src/db/timestamps.ts';
 import { queryTrend } from '../api/src/modules/plant/trend.repository.ts';
 import { median, startBenchDb } from './lib/bench-db.ts';
 
@@ -22,7 +23,7 @@ try {
   for (let i = 0; i < ROWS; i += CHUNK) {
     const values: string[] = [];
     for (let j = i; j < Math.min(ROWS, i + CHUNK); j++) {
-      const ts = new Date(start + j * 1000).toISOString().slice(0, 23).replace('T', ' ');
+      const ts = toSqlTs(start + j * 1000);
       const orp = 420 + 30 * Math.sin(j / 20_000) + ((j * 7919) % 13) / 13;
       values.push(`(1,'${ts}',${j},${orp.toFixed(2)},42.5,${(orp / 1000 + 0.2).toFixed(5)},${(10 ** (orp / 400)).toFixed(4)},0.9,'ok',1,'${ts}')`);
     }

@@ -14,7 +14,7 @@ async function main(): Promise<void> {
   const running = await startBroker({
     port: cfg.MQTT_PORT,
     databaseUrl: cfg.DATABASE_URL,
-    dataDir: cfg.DATA_DIR,
+    dataDir: cfg.FERRISIGHT_DATA_DIR,
     servicePassword: cfg.SERVICE_MQTT_PASSWORD,
     serviceUser: cfg.SERVICE_MQTT_USER,
     maxConnections: cfg.MQTT_MAX_CONNECTIONS,

@@ -1,4 +1,5 @@
 import mqtt, { type IPublishPacket, type MqttClient } from 'mqtt';
+import { writeToStream } from 'mqtt-packet';
 import type { Logger } from 'pino';
 import { CACHE_INVALIDATE_TOPIC, isInternalTopic } from '../shared/schemas/internal-topics.ts';
 import { decodeMessage } from '../api/src/modules/readings/decode.ts';
@@ -25,15 +26,15 @@ export type IntakeOptions = {
 /** Passed to mqtt.js's handleMessage callback to say "no PUBACK from you": it then skips the ack. */
 const NO_AUTO_ACK = new Error('acknowledged after commit');
 
-type PubackSender = { _sendPacket(packet: { cmd: 'puback'; messageId: number }, cb?: () => void): void };
-
 /**
  * The worker's MQTT session: clean: false and QoS 1, so whatever is not acknowledged stays
  * with the broker across a worker crash. mqtt.js hands packets to handleMessage one at a time
  * and writes the PUBACK only when its callback runs (handlers/publish.ts), so:
  * - 'serial': the callback runs after the commit — one message per commit per connection;
  * - 'pipelined': the callback runs at once with an error (mqtt.js then sends no PUBACK and moves
- *   on), and the flusher writes the PUBACK itself after the commit, in arrival order (MQTT-4.6.0-2).
+ *   on), and the flusher writes the PUBACK itself after the commit, in arrival order (MQTT-4.6.0-2),
+ *   encoded by mqtt-packet (the codec mqtt.js itself uses) onto the client's public `stream`.
+ *   mqtt.js has no public call for a PUBACK of its own; a PUBACK needs nothing from its store.
  * Either way a PUBACK is only ever written on the connection the message came in on: a stale
  * one could ack a different message after a reconnect.
  */
@@ -54,9 +55,7 @@ export function startIntake(o: IntakeOptions): Intake {
     queueQoSZero: false,
   });
   let stopping = false;
-  const canAckDirectly = typeof (client as unknown as PubackSender)._sendPacket === 'function';
-  const mode: AckMode = o.ackMode === 'pipelined' && canAckDirectly ? 'pipelined' : 'serial';
-  if (mode !== o.ackMode) o.log.warn('mqtt.js has no _sendPacket: falling back to serial acknowledgement');
+  const mode = o.ackMode;
 
   let markSubscribed: () => void = () => undefined;
   const subscribed = new Promise<void>((resolve) => { markSubscribed = resolve; });
@@ -92,7 +91,7 @@ export function startIntake(o: IntakeOptions): Intake {
     }
     const { messageId, qos } = packet;
     const ack = () => {
-      if (qos > 0 && messageId !== undefined && !isStale()) (client as unknown as PubackSender)._sendPacket({ cmd: 'puback', messageId });
+      if (qos > 0 && messageId !== undefined && !isStale()) writeToStream({ cmd: 'puback', messageId }, stream);
     };
     o.flusher.enqueue({ ...base, ack });
     // Backpressure: hold mqtt.js (and so the socket) while the queue is full.

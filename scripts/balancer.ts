@@ -10,9 +10,9 @@
 import http from 'node:http';
 import type { Duplex } from 'node:stream';
 import httpProxy from 'http-proxy';
-import pino from 'pino';
+import { createLogger } from '../api/src/lib/logger.ts';
 
-const log = pino({ level: process.env.LOG_LEVEL ?? 'info', base: { proc: process.env.FERRISIGHT_PROC ?? 'lb' } });
+const log = createLogger('lb');
 const port = Number(process.env.BALANCER_PORT ?? 8470);
 const targets = (process.env.BALANCER_TARGETS ?? '').split(',').map((t) => t.trim()).filter(Boolean);
 if (targets.length === 0 || !Number.isInteger(port)) {

@@ -34,7 +34,7 @@
  *   REDIS_PORT=8474      private redis-server on 127.0.0.1 (data-less, .data/redis/)
  *   REDIS_URL            redis(s)://… of an existing Redis: no private redis-server
  * Children get: DATABASE_URL, MQTT_URL, SMTP_URL, JWT_SECRET, SERVICE_MQTT_PASSWORD,
- * SIM_DEVICE_PASSWORD, PORT, MQTT_PORT, SMTP_PORT, FERRISIGHT_PROC, NODE_ENV, DATA_DIR, WEB_DIST.
+ * SIM_DEVICE_PASSWORD, PORT, MQTT_PORT, SMTP_PORT, FERRISIGHT_PROC, NODE_ENV, FERRISIGHT_DATA_DIR (absolute), WEB_DIST.
  */
 import { existsSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
@@ -83,7 +83,7 @@ if (SIMULATOR !== 'on' && SIMULATOR !== 'off') {
   process.exit(1);
 }
 if (env.INGEST_SHARED_GROUP && !env.MQTT_URL) {
-  // aedes accepts $share/… subscriptions and delivers nothing to them (handbook stack.md).
+  // aedes accepts $share/… subscriptions and delivers nothing to them (aedes has no shared subscriptions).
   fail('INGEST_SHARED_GROUP needs a broker with shared subscriptions (set MQTT_URL); with the embedded broker use INGEST_SLICE_BY instead');
   process.exit(1);
 }
@@ -290,7 +290,7 @@ async function main(): Promise<void> {
     MQTT_PORT: String(MQTT_PORT),
     SMTP_PORT: String(SMTP_PORT),
     NODE_ENV: DEV ? 'development' : 'production',
-    DATA_DIR,
+    FERRISIGHT_DATA_DIR: DATA_DIR,
     WEB_DIST,
   };
   const tsx = (file: string) => [process.execPath, '--import', 'tsx', file];

@@ -1,10 +1,10 @@
 /**
- * npm run soak — the long form of the reliability suite (issue 8): every fault test with its
+ * npm run soak — the long form of the reliability suite: every fault test with its
  * full figures (10 worker kills, 30 s MariaDB outage, 5 broker kills, 30 s socket outage,
- * 5 min SMTP outage, 10,000 hostile payloads with the latency assertion) plus the G1 soak
+ * 5 min SMTP outage, 10,000 hostile payloads with the latency assertion) plus the 2,000 readings/s soak
  * (tests/reliability/soak.test.ts), one file at a time so the figures are not shared-CPU noise.
  *
- * Settings: SOAK_MINUTES=30 (the G1 stream); extra arguments go to vitest, e.g.
+ * Settings: SOAK_MINUTES=30 (the soak stream); extra arguments go to vitest, e.g.
  *   SOAK_MINUTES=5 npm run soak -- tests/reliability/soak.test.ts
  * Like npm test it starts a throw-away MariaDB (scripts/test.sh) and prints every comparison.
  */
@@ -23,6 +23,6 @@ const targets = args.filter((a) => !a.startsWith('-'));
 const child = spawn('bash', ['scripts/test.sh', ...(targets.length ? [] : ['tests/reliability']), ...args, '--no-file-parallelism', '--reporter=verbose'], {
   cwd: ROOT, stdio: 'inherit', env: { ...process.env, FERRISIGHT_LONG: '1', SOAK_MINUTES: String(minutes) },
 });
-process.stdout.write(`soak: long-form reliability suite, G1 stream ${minutes} min (expect about ${Math.round(minutes + 15)} min in all)\n`);
+process.stdout.write(`soak: long-form reliability suite, soak stream ${minutes} min (expect about ${Math.round(minutes + 15)} min in all)\n`);
 for (const sig of ['SIGINT', 'SIGTERM'] as const) process.on(sig, () => child.kill(sig));
 child.on('exit', (code, signal) => process.exit(code ?? (signal ? 130 : 1)));

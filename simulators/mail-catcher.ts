@@ -1,7 +1,7 @@
 /**
  * Local SMTP catcher for the demo and the tests: accepts every message on loopback, stores it
- * as JSON under DATA_DIR/mail/ (shown on the admin page), never relays anything.
- *   node --import tsx simulators/mail-catcher.ts     (SMTP_PORT=8473, DATA_DIR=.data)
+ * as JSON under FERRISIGHT_DATA_DIR/mail/ (shown on the admin page), never relays anything.
+ *   node --import tsx simulators/mail-catcher.ts     (SMTP_PORT=8473, FERRISIGHT_DATA_DIR=.data)
  * Set SMTP_URL to a real relay instead and `npm start` does not run this.
  */
 import path from 'node:path';
@@ -59,13 +59,13 @@ export async function startMailCatcher(opts: { port: number; dir: string; host?:
 if (process.argv[1] === fileURLToPath(import.meta.url)) {
   const env = z.object({
     SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(8473),
-    DATA_DIR: z.string().default('.data'),
+    FERRISIGHT_DATA_DIR: z.string().default('.data'),
   }).safeParse(process.env);
   if (!env.success) {
     logger.fatal({ issues: env.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`) }, 'invalid configuration');
     process.exit(1);
   }
-  const dir = path.resolve(env.data.DATA_DIR, 'mail');
+  const dir = path.resolve(env.data.FERRISIGHT_DATA_DIR, 'mail');
   try {
     const catcher = await startMailCatcher({ port: env.data.SMTP_PORT, dir });
     logger.info(`Mail catcher on smtp://127.0.0.1:${catcher.port}, storing in ${dir}`);

@@ -3,7 +3,7 @@
  * or generates benchmark load. See `npm run sim -- --help`.
  */
 import mqtt from 'mqtt';
-import pino from 'pino';
+import { createLogger } from '../api/src/lib/logger.ts';
 import { parseSimArgs, simEnv, type SimArgs, type SimEnv } from './plant/config.ts';
 import { SIM_COMMAND_TOPIC } from '../shared/schemas/internal-topics.ts';
 import { simCommandSchema } from '../shared/schemas/simulator.ts';
@@ -12,7 +12,7 @@ import { ensureLoadProbes } from './plant/load-probes.ts';
 import { loadSimProbes } from './plant/plant-db.ts';
 import { runPlant } from './plant/plant-runner.ts';
 
-const log = pino({ level: process.env.LOG_LEVEL ?? 'info', base: { proc: 'sim' } });
+const log = createLogger('sim');
 const say = (line: string) => process.stdout.write(`${line}\n`);
 
 function need(value: string | undefined, name: string): string {

@@ -13,7 +13,7 @@ import { bandsRouter } from './modules/bands/bands.router.ts';
 import { calibrationRouter } from './modules/calibration/calibration.router.ts';
 import { doseRouter } from './modules/dose/dose.router.ts';
 import { probeChecksRouter } from './modules/probe-checks/probe-checks.router.ts';
-import { settingsRouter } from './modules/workbench/settings.router.ts';
+import { siteSettingsRouter } from './modules/site-settings/site-settings.router.ts';
 import type { AuthService } from './modules/auth/auth.service.ts';
 import { authRouter } from './modules/auth/auth.router.ts';
 import { ackRouter } from './modules/notify/ack.router.ts';
@@ -40,7 +40,7 @@ export type AppDeps = {
   rawRetentionDays?: number;
   /** JWT_SECRET: signs the acknowledge links in escalation mail (omitted: links show "not set up"). */
   ackSecret?: string;
-  /** Where the local mail catcher stores what it receives (DATA_DIR/mail). */
+  /** Where the local mail catcher stores what it receives (FERRISIGHT_DATA_DIR/mail). */
   mailDir?: string;
 };
 
@@ -72,7 +72,7 @@ export function createApp(deps: AppDeps): Express {
     ['/api/calibration', calibrationRouter(deps.bus)],
     ['/api/probe-checks', probeChecksRouter()],
     ['/api/dose', doseRouter()],
-    ['/api/workbench', settingsRouter()],
+    ['/api/site-settings', siteSettingsRouter()],
     ['/api/shifts', shiftsRouter()],
     ['/api/shift-log', shiftLogRouter()],
     ['/api/digest', digestRouter()],

@@ -2,11 +2,22 @@ import { z } from 'zod';
 import { ALL_DEVICES_FILTER } from '../../shared/schemas/readings.ts';
 
 /**
- * The only reader of process.env for the API and ingest processes. The start script
- * fills DATABASE_URL, JWT_SECRET and SERVICE_MQTT_PASSWORD for the private services.
+ * The only reader of process.env for the API, ingest, notifier and their logger; the simulator and
+ * the start scripts parse their own few settings. The start script fills DATABASE_URL, JWT_SECRET
+ * and SERVICE_MQTT_PASSWORD for the private services.
  */
-const schema = z.object({
+
+/** Logging: every process's logger reads these, even one that needs no database. */
+const loggingShape = {
   NODE_ENV: z.enum(['development', 'production', 'test']).default('production'),
+  /** Unset: info, or silent under NODE_ENV=test. */
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  /** The part's name in each log line; the start script sets it per process. */
+  FERRISIGHT_PROC: z.string().min(1).optional(),
+};
+
+const schema = z.object({
+  ...loggingShape,
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(1).max(65535).default(8470),
   PUBLIC_URL: z.string().url().optional(),
@@ -18,7 +29,6 @@ const schema = z.object({
   MAIL_FROM: z.string().default('Ferrisight <ferrisight@localhost>'),
   JWT_SECRET: z.string().min(32, 'must be at least 32 characters'),
   JWT_TTL_S: z.coerce.number().int().min(60).default(8 * 3600),
-  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   WEB_DIST: z.string().default('dist/web'),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(90),
   INGEST_CLIENT_ID: z.string().default('ferrisight-ingest-1'),
@@ -26,7 +36,8 @@ const schema = z.object({
   // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).
   MQTT_PORT: z.coerce.number().int().min(1).max(65535).default(8472),
   MQTT_MAX_CONNECTIONS: z.coerce.number().int().min(1).default(2000),
-  DATA_DIR: z.string().default('.data'),
+  /** Folder for the broker's sessions, caught mail and uploads (the start script passes an absolute path). */
+  FERRISIGHT_DATA_DIR: z.string().default('.data'),
   /** 'pipelined' acks after commit but keeps reading while a flush runs; 'serial' holds mqtt.js per message. */
   INGEST_ACK_MODE: z.enum(['pipelined', 'serial']).default('pipelined'),
   INGEST_FLUSH_MS: z.coerce.number().int().min(1).max(1000).default(25),
@@ -50,21 +61,9 @@ export type Config = z.infer<typeof schema>;
 
 let cached: Config | undefined;
 
-/** Parses the environment once; exits with the list of bad keys when it does not fit. */
-export function config(): Config {
-  if (cached) return cached;
-  const parsed = schema.safeParse(process.env);
-  if (!parsed.success) {
-    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
-    throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
-  }
-  cached = parsed.data;
-  return cached;
-}
-
-/** Ingest processes (broker, worker) sign no tokens, so they do not need JWT_SECRET. */
-export function ingestConfig(): Omit<Config, 'JWT_SECRET'> {
-  const parsed = schema.omit({ JWT_SECRET: true }).safeParse(process.env);
+/** Throws with the list of bad keys when the environment does not fit. */
+function parseEnv<T extends z.ZodType>(s: T): z.infer<T> {
+  const parsed = s.safeParse(process.env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
@@ -72,7 +71,20 @@ export function ingestConfig(): Omit<Config, 'JWT_SECRET'> {
   return parsed.data;
 }
 
-/** Tests build their own app against their own database. */
-export function overrideConfig(values: Partial<Config>): void {
-  cached = { ...config(), ...values };
+/** Parses the environment once; throws with the list of bad keys when it does not fit. */
+export function config(): Config {
+  cached ??= parseEnv(schema);
+  return cached;
+}
+
+/** Ingest processes (broker, worker) sign no tokens, so they do not need JWT_SECRET. */
+export function ingestConfig(): Omit<Config, 'JWT_SECRET'> {
+  return parseEnv(schema.omit({ JWT_SECRET: true }));
+}
+
+export type LoggingConfig = z.infer<z.ZodObject<typeof loggingShape>>;
+
+/** The logging settings alone, for processes (simulator, balancer, mail catcher) without the rest. */
+export function loggingConfig(): LoggingConfig {
+  return parseEnv(z.object(loggingShape));
 }

@@ -8,6 +8,7 @@ import type { Logger } from 'pino';
 import { logger as rootLogger } from '../../api/src/lib/logger.ts';
 import { createIngestPool } from '../../api/src/db/pool.ts';
 import { clientIdRefusal, publishRefusal, subscribeRefusal } from './acl.ts';
+import { disableDeliveryDedupe } from './delivery-dedupe.ts';
 import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
 import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
@@ -54,7 +55,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
 
   const broker = await Aedes.createBroker({
     persistence: aedesPersistenceLevel(db),
-    // A frozen subscriber must not stall delivery to everyone (G12: at most 10 s): after 5 s
+    // A frozen subscriber must not stall delivery to everyone (at most 10 s): after 5 s
     // without draining it is disconnected, and its session keeps the messages. The ingest worker
     // stops reading while its queue is full (a slow database), so it may be cut too; it reconnects
     // and its clean: false session resumes where it stopped.
@@ -63,12 +64,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     connectTimeout: 10_000,
     heartbeatInterval: 60_000,
     preConnect: (client, _packet, done) => {
-      // aedes drops a QoS 1 packet whose brokerCounter is below the last one delivered to that
-      // client ("dedupe", meant for broker clusters). With level persistence, concurrent publishes
-      // finish enqueueing out of order, so live packets were silently skipped (≈1 % at 200 msg/s;
-      // a persistent subscriber got them only at its next reconnect). moscajs/aedes#955, #994.
-      // One broker never sees a packet twice through its emitter; duplicates are idempotent anyway.
-      (client as unknown as { duplicates: object }).duplicates = new Proxy({}, { get: () => undefined, set: () => true });
+      disableDeliveryDedupe(client);
       if (broker.connectedClients >= maxConnections) {
         log.warn({ maxConnections }, 'connection refused: cap reached');
         return done(null, false);
@@ -106,7 +102,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       packet.retain = false;
       // A message that breaks the device contract is dead-lettered here, with the reason the worker
       // would give, and its PUBACK waits for that commit; it then goes to a topic nobody reads, so
-      // hostile traffic never fills the worker's session (G6). Batches and plant checks stay with the worker.
+      // hostile traffic never fills the worker's session. Batches and plant checks stay with the worker.
       const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
       if (!letter) return done();

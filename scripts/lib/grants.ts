@@ -1,8 +1,9 @@
 /**
- * Table-level privileges of the runtime database user (21 CFR 11.10(e), reliability.md §5 and
- * G11): migrations run as an owner account; the parts (API, ingest, notifier) connect as the
- * app user, which may only SELECT and INSERT audit and history tables — an UPDATE or DELETE
- * there is refused by MariaDB itself, whatever the application code does.
+ * Table-level privileges of the runtime database user (21 CFR 11.10(e): record changes shall
+ * not obscure previously recorded information): migrations run as an owner account; the parts
+ * (API, ingest, notifier) connect as the app user, which may only SELECT and INSERT audit and
+ * history tables — an UPDATE or DELETE there is refused by MariaDB itself, whatever the
+ * application code does.
  *
  * The list is by table name: a table added by a later migration gets ordinary read-write
  * rights until it is named here. tests/security/db-grants.test.ts fails when a table is in

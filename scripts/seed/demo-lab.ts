@@ -9,7 +9,8 @@ import { AssayRow, ProbeCheckRowModel } from '../../api/src/db/workbench-models.
 import { labRatioOf } from '../../api/src/modules/assays/assay-match.ts';
 import { auditAt, pointAt, type DemoContext } from './demo-context.ts';
 import { DAY_MS, driftMv, HOUR_MS, MINUTE_MS } from './demo-story.ts';
-import { atLocal, localTime } from './site-clock.ts';
+import { wallTimeOf } from '../../shared/time/site-time.ts';
+import { atLocal } from './site-clock.ts';
 import { seededRng } from './seeded-random.ts';
 
 export const ASSAY_TANKS = ['A1', 'A3', 'A6', 'B1', 'B2', 'B4'];
@@ -33,7 +34,7 @@ function plannedSamples(ctx: DemoContext): Sample[] {
     for (const [h, m] of [[7, 30], [19, 30]]) {
       const at = atLocal(story.endMs, d, h, m, tz);
       if (at < story.startMs + HOUR_MS || at > story.endMs - TURNAROUND_MS) continue;
-      const day = localTime(at, tz);
+      const day = wallTimeOf(at, tz);
       const source = `csv:kestrel-lab-${day.year}${pad(day.month)}${pad(day.day)}.csv`;
       for (const tankTag of ASSAY_TANKS) samples.push({ tankTag, atMs: at + ASSAY_TANKS.indexOf(tankTag) * 4 * MINUTE_MS, source, note: null });
     }
@@ -64,7 +65,7 @@ export async function seedAssays(ctx: DemoContext): Promise<SeededAssay[]> {
     const fe2 = Number(round(fe2True * (1 + rng.normal(0.015)), 0.01).toFixed(2));
     const feTotal = Number(round(totalTrue * (1 + rng.normal(0.01)), 0.05).toFixed(2));
     const enteredAtMs = s.atMs + TURNAROUND_MS + rng.between(-40, 40) * MINUTE_MS;
-    const day = localTime(s.atMs, ctx.timeZone);
+    const day = wallTimeOf(s.atMs, ctx.timeZone);
     labSeq += 1;
     const labRef = `KFL-${String(day.year).slice(2)}${pad(day.month)}${pad(day.day)}-${pad(labSeq, 3)}`;
     const row = await AssayRow.create({

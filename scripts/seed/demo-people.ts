@@ -10,7 +10,7 @@ import { QueryTypes } from 'sequelize';
 import type { Role } from '../../shared/schemas/auth.ts';
 import { User } from '../../api/src/db/models.ts';
 import { BCRYPT_COST } from '../../api/src/modules/auth/auth.service.ts';
-import { localTime } from './site-clock.ts';
+import { wallTimeOf } from '../../shared/time/site-time.ts';
 
 export type Person = { id: number; name: string };
 type Crew = { operator: Person; supervisor: Person };
@@ -71,7 +71,7 @@ export async function ensureDemoPeople(): Promise<DemoPeople> {
 export function crewAt(people: DemoPeople, utcMs: number, timeZone: string): Crew {
   const r = people.rotation;
   if (!r) {
-    const hour = localTime(utcMs, timeZone).hour;
+    const hour = wallTimeOf(utcMs, timeZone).hour;
     return people.crews[hour >= 6 && hour < 18 ? 0 : 1];
   }
   const k = Math.floor((utcMs - r.anchorMs) / r.shiftMs);

@@ -1,6 +1,6 @@
 /**
- * Condition evaluation with deadband, on-delay and off-delay (the OPC UA Part 9 terms of
- * domain.md 7.6 [S]). Pure: the caller passes the time, so tests drive it with any clock.
+ * Condition evaluation with deadband, on-delay and off-delay (the terms of
+ * OPC UA Part 9, Alarms and Conditions). Pure: the caller passes the time, so tests drive it with any clock.
  *
  * - The alarm activates once the value has stayed beyond the limit for onDelayS.
  * - It clears once the value has stayed back past the deadband for offDelayS.

@@ -1,5 +1,5 @@
 /**
- * Alarm-rate figures of domain.md 7.6, as pure functions over plain records (targets and their
+ * Alarm-rate figures after ISA-18.2 / EEMUA 191, as pure functions over plain records (targets and their
  * sources in targets.ts). An "alarm" here is an annunciation: a transition into unacknowledged
  * that the operator saw; condition changes while shelved, suppressed or out of service are not
  * counted, but they do count towards chattering (a chattering alarm is often shelved).

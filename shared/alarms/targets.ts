@@ -1,5 +1,5 @@
 /**
- * Alarm-management targets, with their sources as domain.md 7.6 gives them.
+ * Alarm-management targets, each with its published source.
  * confidence 'S': seen in the named source; 'M': from memory, unverified — shown to users as
  * "from memory" and never used as a test check value until confirmed.
  */
@@ -22,8 +22,8 @@ export const ALARM_TARGETS = {
   /** … and ends below 5 alarms in 10 minutes. */
   floodEndPer10Min: { value: 5, source: ISA, confidence: 'M' },
   /** Chattering: 3 or more transitions into alarm within 60 s (a working rule). */
-  chatterCount: { value: 3, source: 'working rule (domain.md 7.6)', confidence: 'M' },
-  chatterWindowS: { value: 60, source: 'working rule (domain.md 7.6)', confidence: 'M' },
+  chatterCount: { value: 3, source: 'common practice', confidence: 'M' },
+  chatterWindowS: { value: 60, source: 'common practice', confidence: 'M' },
   /** Stale: active for more than 24 h. */
   staleHours: { value: 24, source: ISA, confidence: 'M' },
   /** Priority mix, share of alarms: about 5 % high, 15 % medium, 80 % low. */
@@ -31,8 +31,6 @@ export const ALARM_TARGETS = {
   mixMedium: { value: 0.15, source: ISA, confidence: 'M' },
   mixLow: { value: 0.8, source: ISA, confidence: 'M' },
 } as const satisfies Record<string, Target>;
-
-export type TargetName = keyof typeof ALARM_TARGETS;
 
 /** "(ISA-18.2, from memory)" or "(EEMUA 191 via published benchmarking)" for labels. */
 export function sourceNote(t: Target): string {

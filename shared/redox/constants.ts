@@ -12,9 +12,6 @@ export const GAS_CONSTANT_J_PER_MOL_K = 8.314462618;
 /** Offset from °C to K (T = tempC + 273.15). */
 export const KELVIN_OFFSET = 273.15;
 
-/** 25 °C in kelvin: the temperature at which formal and reference potentials are quoted. */
-export const T25_K = 298.15;
-
 /** Lowest temperature accepted, °C. Below this, aqueous leach liquors freeze. */
 export const TEMP_MIN_C = -10;
 

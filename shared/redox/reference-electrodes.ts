@@ -16,7 +16,7 @@ export type ReferenceElectrode = {
   source: string;
 };
 
-// Values from domain handbook 7.3. Where two books differ we default to Skoog
+// Where two books differ we default to Skoog
 // (Skoog, West, Holler & Crouch, Fundamentals of Analytical Chemistry), because its
 // table also gives the 15/25/35 °C values from which the coefficients are computed,
 // so value and coefficient come from one table. Bard & Faulkner alternatives are

@@ -9,7 +9,8 @@ import { referencePotentialV, type ReferenceElectrode } from './reference-electr
 export type StandardSolution = 'zobell' | 'light';
 
 /**
- * ZoBell's solution (3.33 mM K₄Fe(CN)₆ + 3.33 mM K₃Fe(CN)₆ in 0.1 M KCl), Eh vs SHE.
+ * ZoBell's solution (3.33 mM K₄Fe(CN)₆ + 3.33 mM K₃Fe(CN)₆ in 0.1 M KCl), Eh vs SHE
+ * (Standard Methods for the Examination of Water and Wastewater, 2580, Table 2580:I).
  * Never acidify it: it releases hydrogen cyanide.
  */
 export const ZOBELL_TABLE: ReadonlyArray<{ tempC: number; ehV: number }> = [
@@ -21,7 +22,6 @@ export const ZOBELL_TABLE: ReadonlyArray<{ tempC: number; ehV: number }> = [
   { tempC: 25, ehV: 0.428 },
   { tempC: 30, ehV: 0.417 },
 ];
-export const ZOBELL_SOURCE = 'Standard Methods for the Examination of Water and Wastewater, 2580, Table 2580:I';
 
 /**
  * Light's solution (0.1 M ferrous + 0.1 M ferric ammonium sulfate in about 1 M H₂SO₄).

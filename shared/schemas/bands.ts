@@ -94,5 +94,3 @@ export type BandRow = {
 };
 
 export type BandsResponse = { tanks: BandRow[]; approvalFactor: Record<number, number> };
-export type BandChangeResult = { change: BandChange };
-export type BandCopyResult = { changes: BandChange[] };

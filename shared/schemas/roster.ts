@@ -50,6 +50,6 @@ export const policySchema = z.object({
 });
 export type PolicyInput = z.infer<typeof policySchema>;
 
-export type ShiftView = { id: number; personName: string; email: string; roleOnCall: OnCallRole; startsAt: string; endsAt: string; note: string | null; userId: number | null };
+export type OnCallShiftView = { id: number; personName: string; email: string; roleOnCall: OnCallRole; startsAt: string; endsAt: string; note: string | null; userId: number | null };
 export type EscalationStepView = { priority: number; step: number; afterMin: number; notify: OnCallRole[] };
-export type OnCallNow = { at: string; shifts: ShiftView[] };
+export type OnCallNow = { at: string; shifts: OnCallShiftView[] };

@@ -1,4 +1,4 @@
-import { addDays, localDateOf, zonedTimeToUtc } from './time-zone.ts';
+import { addDays, localDateOf, zonedTimeToUtc } from '../time/site-time.ts';
 
 /** A site's shift pattern: equal shifts by the wall clock, the first starting firstStartMin after local midnight. */
 export type ShiftPattern = { shiftsPerDay: 2 | 3; firstStartMin: number };

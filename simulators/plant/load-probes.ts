@@ -1,7 +1,6 @@
 import mariadb from 'mariadb';
+import { toSqlTs } from '../../api/src/db/timestamps.ts';
 import { loadProbeTag } from './load.ts';
-
-const NOW = () => new Date().toISOString().slice(0, 23).replace('T', ' ');
 
 /**
  * Makes sure the synthetic load probes L0001…L<tanks> exist under `siteTag` (circuit 'LOAD',
@@ -18,7 +17,7 @@ export async function ensureLoadProbes(databaseUrl: string, siteTag: string, tan
   try {
     const [site] = await conn.query('SELECT id FROM sites WHERE tag = ?', [siteTag]);
     if (!site) throw new Error(`site '${siteTag}' does not exist`);
-    const now = NOW();
+    const now = toSqlTs(Date.now());
     await conn.beginTransaction();
     let [circuit] = await conn.query("SELECT id FROM circuits WHERE site_id = ? AND tag = 'LOAD'", [site.id]);
     if (!circuit) {

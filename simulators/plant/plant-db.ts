@@ -20,7 +20,7 @@ type Row = {
   formal_potential_v: number | null; formal_coeff_v_per_k: number | null;
 };
 
-const FALLBACK_FORMAL_V = 0.68; // Skoog, 1 M H2SO4 (domain handbook 7.2), only when a tank has no calibration yet
+const FALLBACK_FORMAL_V = 0.68; // Skoog, formal potential in 1 M H2SO4; only when a tank has no calibration yet
 
 /** Train B of the demo runs a low-potential window (band ≤ 5); everything else is treated as bioleach. */
 export function tankKind(bandHigh: number): TankKind {

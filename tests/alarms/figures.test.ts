@@ -3,7 +3,7 @@ import { alarmFigures, chattering, floods, priorityMix, rateFigure, staleAlarms,
 import { ALARM_TARGETS, sourceNote } from '../../shared/alarms/targets.ts';
 
 /**
- * The flood, chattering, stale and mix thresholds are "from memory" in domain.md 7.6, so these
+ * The flood, chattering, stale and mix thresholds are from memory (ISA-18.2, unverified), so these
  * tests never hard-code them: they read ALARM_TARGETS and check the logic around the threshold.
  */
 const MIN = 60_000;

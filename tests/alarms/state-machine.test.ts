@@ -3,8 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { ALARM_ACTIONS, ALARM_STATES, canApply, transition, type AlarmAction, type AlarmState, type AlarmStatus } from '../../shared/alarms/states.ts';
 
 /**
- * The lifecycle table of ISA-18.2 / IEC 62682 as the issue lists it (domain.md 7.6 names the
- * states [S]). Every (state, condition, action) not listed here must be refused.
+ * The lifecycle table of ISA-18.2 / IEC 62682 (states as the standards name them). Every (state, condition, action) not listed here must be refused.
  */
 type Row = [from: AlarmState, active: boolean, action: AlarmAction, to: AlarmState, toActive: boolean];
 const ALLOWED: Row[] = [

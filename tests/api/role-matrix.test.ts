@@ -23,7 +23,7 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'GET', path: '/api/admin/simulator', allowed: ['admin'] },
   { method: 'POST', path: '/api/admin/simulator', allowed: ['admin'], body: {} },
   { method: 'GET', path: '/api/admin/ingest-health', allowed: ['admin'] },
-  // Metallurgist's workbench (issue 6): everyone reads; metallurgists and admins change; supervisors and metallurgists decide.
+  // Metallurgist's workbench: everyone reads; metallurgists and admins change; supervisors and metallurgists decide.
   { method: 'GET', path: '/api/bands', allowed: ALL },
   { method: 'GET', path: '/api/bands/changes', allowed: ALL },
   { method: 'PUT', path: '/api/bands/:id', allowed: ['metallurgist', 'admin'], body: {} },
@@ -48,9 +48,9 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'GET', path: '/api/probe-checks/replacements', allowed: ALL },
   { method: 'POST', path: '/api/probe-checks/replacements', allowed: ['metallurgist', 'admin'], body: {} },
   { method: 'GET', path: '/api/dose/:id', allowed: ALL },
-  { method: 'GET', path: '/api/workbench/settings', allowed: ALL },
-  { method: 'PUT', path: '/api/workbench/settings', allowed: ['admin'], body: {} },
-  // Shift log, Shift digest and readings in/out (issue 7): everyone writes the log and reads the digest; supervisors hand over.
+  { method: 'GET', path: '/api/site-settings', allowed: ALL },
+  { method: 'PUT', path: '/api/site-settings', allowed: ['admin'], body: {} },
+  // Shift log, Shift digest and readings in/out: everyone writes the log and reads the digest; supervisors hand over.
   { method: 'GET', path: '/api/shifts/pattern', allowed: ALL },
   { method: 'PUT', path: '/api/shifts/pattern', allowed: ['admin'], body: {} },
   { method: 'GET', path: '/api/shifts', allowed: ALL },
@@ -64,7 +64,7 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'GET', path: '/api/readings/imports', allowed: ['metallurgist', 'admin'] },
   { method: 'GET', path: '/api/readings/imports/:id', allowed: ['metallurgist', 'admin'] },
   { method: 'GET', path: '/api/readings/imports/:id/rejections', allowed: ['metallurgist', 'admin'] },
-  // Alarms, Call roster and caught mail (issue 5): everyone sees and comments; supervisors, engineers and admins
+  // Alarms, Call roster and caught mail: everyone sees and comments; supervisors, engineers and admins
   // acknowledge and shelve; metallurgists and admins own definitions and out of service; supervisors and admins the roster.
   { method: 'GET', path: '/api/alarms/active', allowed: ALL },
   { method: 'GET', path: '/api/alarms/summary', allowed: ALL },

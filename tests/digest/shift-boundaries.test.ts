@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { neighbourShift, shiftAt, shiftsBetween, shiftsOfDay, type ShiftPattern } from '../../shared/shifts/shift-boundaries.ts';
-import { localDateOf, zoneOffsetMs, zonedTimeToUtc } from '../../shared/shifts/time-zone.ts';
+import { localDateOf, zoneOffsetMs, zonedTimeToUtc } from '../../shared/time/site-time.ts';
 
 const iso = (ms: number) => new Date(ms).toISOString().slice(0, 16);
 const hours = (s: { startsAtMs: number; endsAtMs: number }) => (s.endsAtMs - s.startsAtMs) / 3_600_000;

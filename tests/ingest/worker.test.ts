@@ -49,7 +49,7 @@ const deadLetters = () => pool.query('SELECT topic, payload, payload_bytes, reas
 
 describe('ingest worker, end to end over MQTT', () => {
   it('when Light\'s solution reads +476 mV against a 0.199 V reference at 25 °C, then the stored ratio is 1.000', async () => {
-    // Source: Standard Methods 2580 / ASTM D1498 (domain handbook 7.8): Eh 0.675 V, E°′ 0.675 V → ratio 1.
+    // Source: Standard Methods 2580 / ASTM D1498 : Eh 0.675 V, E°′ 0.675 V → ratio 1.
     const live: TankLive[] = [];
     await service.subscribeAsync(latestTopic('kestrel'));
     service.on('message', (topic, payload) => {

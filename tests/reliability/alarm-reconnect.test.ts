@@ -1,5 +1,5 @@
 /**
- * G8 (reliability.md §7): 200 socket.io clients force-disconnected while alarms are raised →
+ * 200 socket.io clients force-disconnected while alarms are raised →
  * after reconnecting, each has every alarm event id (0 missed). The client side is what the web
  * app does: `auth` is a function, so every (re)connect sends `lastAlarmEventId`, and the API
  * replays from alarm_events (api/src/realtime/alarm-feed.ts). Short form: 5 s down;
@@ -55,7 +55,7 @@ function eventSource(definitionIds: number[]) {
 
 const allEventIds = async () => (await t.sequelize.query<{ id: number }>('SELECT id FROM alarm_events ORDER BY id', { type: QueryTypes.SELECT })).map((r) => r.id);
 
-describe('alarm feed across forced disconnects (G8)', () => {
+describe('alarm feed across forced disconnects', () => {
   it(`when ${CLIENTS} clients are force-disconnected for ${DOWN_MS / 1000} s while alarms are raised, then each receives every missed alarm id after reconnecting`, async () => {
     const defs = (await t.sequelize.query<{ id: number }>('SELECT id FROM alarm_definitions ORDER BY id LIMIT 8', { type: QueryTypes.SELECT })).map((r) => r.id);
     expect(defs.length).toBeGreaterThan(0);
@@ -102,7 +102,7 @@ describe('alarm feed across forced disconnects (G8)', () => {
 
     const missing = clients.map((c) => expected.filter((id) => !c.ids.has(id)).length);
     const complete = missing.filter((m) => m === 0).length;
-    console.log(`G8 ${CLIENTS} clients, ${DOWN_MS / 1000} s down: ${expected.length} events (${missedWhileDown} while down); `
+    console.log(`${CLIENTS} clients, ${DOWN_MS / 1000} s down: ${expected.length} events (${missedWhileDown} while down); `
       + `${complete}/${CLIENTS} clients have every id ${((Date.now() - reconnectAt) / 1000).toFixed(1)} s after reconnecting; missed ids in total ${missing.reduce((a, b) => a + b, 0)}`);
     expect(missing.every((m) => m === 0)).toBe(true);
   }, 90_000);

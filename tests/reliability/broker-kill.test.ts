@@ -1,5 +1,5 @@
 /**
- * G4 (reliability.md §7): the broker (ingest/broker.ts, level persistence) kill -9'd and
+ * The broker (ingest/broker.ts, level persistence) kill -9'd and
  * restarted → sessions survive, 0 loss of PUBACKed readings, resume ≤ 5 s.
  *
  * What this settles: aedes 1.2.0 does NOT persist before PUBACK. For QoS 1,
@@ -7,7 +7,7 @@
  * enqueueOffline step puts the message into the level store for persistent subscribers. A kill
  * between the two loses a message the device was told is safe. The second test measures that
  * window; the first proves the device-side rule that closes it: keep the last few seconds of
- * readings and re-send them after any reconnect (the store ignores exact duplicates, G5).
+ * readings and re-send them after any reconnect (the store ignores exact duplicates).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
@@ -36,7 +36,7 @@ afterAll(async () => {
 const idsSql = () => rig.probes.map((p) => p.id).join(',');
 const storedCount = async () => Number((await rig.pool.query(`SELECT COUNT(*) AS n FROM readings WHERE probe_id IN (${idsSql()})`))[0].n);
 
-describe('broker kill -9 with level persistence (G4)', () => {
+describe('broker kill -9 with level persistence', () => {
   it('when the broker is killed mid-stream and restarted, then sessions survive and, with the device re-sending its last 15 s, nothing is lost or duplicated', async () => {
     const device = await rig.device('relia-dev-brokerkill', { clean: false });
     const stream = rig.stream();
@@ -64,8 +64,8 @@ describe('broker kill -9 with level persistence (G4)', () => {
     const drained = await waitForCount(rig.pool, stream.sent.snapshot(), 60_000);
     const c = await compareStored(rig.pool, stream.sent.snapshot());
     const sessions = rig.worker!.lines.filter((l) => l.includes('"connected to broker"')).map((l) => JSON.parse(l).sessionPresent as boolean);
-    console.log(formatComparison(`G4 broker kill -9 ×${kills}`, c));
-    console.log(`G4 worker connects (sessionPresent): ${JSON.stringify(sessions)}; device re-sent ${run.replayed()} messages; resume after kill: ${resumeMs.map((ms) => `${(ms / 1000).toFixed(1)} s`).join(', ')}`);
+    console.log(formatComparison(`broker kill -9 ×${kills}`, c));
+    console.log(`worker connects (sessionPresent): ${JSON.stringify(sessions)}; device re-sent ${run.replayed()} messages; resume after kill: ${resumeMs.map((ms) => `${(ms / 1000).toFixed(1)} s`).join(', ')}`);
 
     expect(drained.reached).toBe(true);
     expect(c).toMatchObject({ lost: 0, duplicated: 0, unexpected: 0, conflicts: 0, ok: true });
@@ -73,7 +73,7 @@ describe('broker kill -9 with level persistence (G4)', () => {
     expect(sessions.slice(1).length).toBeGreaterThanOrEqual(kills);
     expect(sessions.slice(1).every(Boolean)).toBe(true);
     // Resume includes starting the broker process (node + tsx); on a loaded 2-core box that alone can
-    // take seconds, so the short form only prints it and the long form (run file by file) asserts G4's 5 s.
+    // take seconds, so the short form only prints it and the long form (run file by file) asserts the 5 s resume.
     if (LONG) expect(Math.max(...resumeMs)).toBeLessThanOrEqual(5_000);
   }, 120_000);
 
@@ -112,7 +112,7 @@ describe('broker kill -9 with level persistence (G4)', () => {
     const rows = await rig.pool.query(`SELECT probe_id, seq FROM readings WHERE probe_id IN (${idsSql()}) AND seq > ?`, [SEQ0]);
     const stored = new Set(rows.map((r: { probe_id: number; seq: number }) => `${r.probe_id}:${r.seq}`));
     const lostAcked = [...ackedKeys].filter((k) => !stored.has(k)).length;
-    console.log(`G4 window: ${ackedReadings} readings PUBACKed before kill -9, ${lostAcked} of them not persisted by the broker `
+    console.log(`window: ${ackedReadings} readings PUBACKed before kill -9, ${lostAcked} of them not persisted by the broker `
       + `(${((100 * lostAcked) / Math.max(1, ackedReadings)).toFixed(1)} %); ${stored.size} stored in all (unacked ones that made it count too)`);
     // Not asserted to be 0: aedes acks before persisting. The figure is for the closing note.
     expect(ackedReadings).toBeGreaterThan(0);

@@ -1,5 +1,5 @@
 /**
- * G5 (reliability.md §7): every message sent twice → 0 duplicate rows; a different value for a
+ * Every message sent twice → 0 duplicate rows; a different value for a
  * stored (probe, ts) is recorded in reading_conflicts, never written over the first.
  * The first case is the plain stream with no fault at all: it is what caught aedes dropping
  * out-of-order QoS 1 packets (moscajs/aedes#955) — nothing may wait for a reconnect to arrive.
@@ -18,7 +18,7 @@ beforeAll(async () => {
 });
 afterAll(() => stopLiveRig({ db, rig }));
 
-describe('duplicates and conflicts (G5)', () => {
+describe('duplicates and conflicts', () => {
   it('when 2,000 readings/s flow with no fault, then every one is stored within 5 s of its PUBACK, without any reconnect', async () => {
     const device = await rig.device('relia-dev-steady', { clean: false });
     const stream = rig.stream();
@@ -40,7 +40,7 @@ describe('duplicates and conflicts (G5)', () => {
     // Give the second copies time to land too: they arrive after the first ones.
     await new Promise((r) => setTimeout(r, 1_000));
     const c = await compareStored(rig.pool, stream.sent.snapshot());
-    console.log(formatComparison('G5 every message twice', c));
+    console.log(formatComparison('every message twice', c));
     expect(c).toMatchObject({ lost: 0, duplicated: 0, unexpected: 0, conflicts: 0, ok: true });
   }, 30_000);
 
@@ -62,7 +62,7 @@ describe('duplicates and conflicts (G5)', () => {
       await new Promise((r) => setTimeout(r, 100));
     }
     const c = await compareStored(rig.pool, stream.sent.snapshot());
-    console.log(formatComparison('G5 conflicting re-send', c), `conflict rows ${rows.length} of ${changed.length}`);
+    console.log(formatComparison('conflicting re-send', c), `conflict rows ${rows.length} of ${changed.length}`);
     expect(rows).toHaveLength(changed.length);
     expect(rows.every((r) => r.incoming_orp_mv === r.stored_orp_mv + 7)).toBe(true);
     // The checksum still matches the first values: nothing was overwritten.

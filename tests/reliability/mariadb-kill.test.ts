@@ -1,5 +1,5 @@
 /**
- * G3 (reliability.md §7): mariadbd kill -9 mid-stream, down for a while, restarted → 0 lost,
+ * mariadbd kill -9 mid-stream, down for a while, restarted → 0 lost,
  * 0 duplicated, the worker survives (same pid) and catches up; broker RSS growth ≤ 150 MB.
  * Short form: 10 s outage in a ~30 s stream. FERRISIGHT_LONG=1 / npm run soak: 30 s outage.
  * Runs on a MariaDB of its own (lib/private-db.ts): the shared test server serves other files.
@@ -32,7 +32,7 @@ afterAll(async () => {
   await db?.stop();
 });
 
-describe('MariaDB kill -9 under load (G3)', () => {
+describe('MariaDB kill -9 under load', () => {
   it(`when mariadbd is killed for ${OUTAGE_MS / 1000} s mid-stream, then nothing is lost or duplicated and the worker survives`, async () => {
     const device = await rig.device('relia-dev-dbkill', { clean: false });
     const stream = rig.stream();
@@ -63,8 +63,8 @@ describe('MariaDB kill -9 under load (G3)', () => {
     const drained = await waitForCount(rig.pool, stream.sent.snapshot(), 90_000);
     const c = await compareStored(rig.pool, stream.sent.snapshot());
     const catchUpS = (Date.now() - restartedAt) / 1000;
-    console.log(formatComparison(`G3 mariadbd kill -9, ${OUTAGE_MS / 1000} s outage`, c), await deadLetterSummary(rig.pool));
-    console.log(`G3 worker pid ${worker.pid} ${worker.proc.exitCode === null && worker.proc.signalCode === null ? 'still running' : 'EXITED'}; `
+    console.log(formatComparison(`mariadbd kill -9, ${OUTAGE_MS / 1000} s outage`, c), await deadLetterSummary(rig.pool));
+    console.log(`worker pid ${worker.pid} ${worker.proc.exitCode === null && worker.proc.signalCode === null ? 'still running' : 'EXITED'}; `
       + `caught up ${catchUpS.toFixed(1)} s after MariaDB answered again; broker RSS ${rssBefore.toFixed(0)} → peak ${rssPeak.toFixed(0)} MiB (+${(rssPeak - rssBefore).toFixed(0)})`);
 
     expect(worker.proc.exitCode).toBeNull();

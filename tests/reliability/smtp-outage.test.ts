@@ -1,5 +1,5 @@
 /**
- * G9 (reliability.md §7): the SMTP relay (here the real mail catcher) is down while escalation
+ * The SMTP relay (here the real mail catcher) is down while escalation
  * mail falls due → after it comes back, each due mail is sent exactly once, within 2 minutes.
  * Short form: 20 s outage; FERRISIGHT_LONG=1: 5 minutes. The notifier runs as the notifier
  * process does (createNotifier().runOnce() in a loop), with its default retry backoff.
@@ -35,7 +35,7 @@ afterAll(async () => {
 
 type Outbox = { id: number; status: string; message_id: string; sent_at: Date | null; attempts: number };
 
-describe('escalation mail across an SMTP outage (G9)', () => {
+describe('escalation mail across an SMTP outage', () => {
   it(`when the SMTP catcher is down for ${DOWN_MS / 1000} s while mail falls due, then each due mail is sent once within 2 minutes of recovery`, async () => {
     const port = await findFreePort();
     const notifier = createNotifier({
@@ -76,7 +76,7 @@ describe('escalation mail across an SMTP outage (G9)', () => {
     const caught = readdirSync(mailDir).filter((f) => f.endsWith('.json')).map((f) => JSON.parse(readFileSync(path.join(mailDir, f), 'utf8')) as { messageId: string | null });
     const perMessage = new Map<string, number>();
     for (const m of caught) perMessage.set(String(m.messageId), (perMessage.get(String(m.messageId)) ?? 0) + 1);
-    console.log(`G9 SMTP down ${DOWN_MS / 1000} s: ${rows.length} due mails (${failedWhileDown[0].n} had failed attempts while down), `
+    console.log(`SMTP down ${DOWN_MS / 1000} s: ${rows.length} due mails (${failedWhileDown[0].n} had failed attempts while down), `
       + `all sent ${(lastSentMs / 1000).toFixed(1)} s after recovery; ${caught.length} caught, repeats ${[...perMessage.values()].filter((n) => n > 1).length}; ${passes} notifier passes`);
 
     expect(rows.length).toBeGreaterThan(0);

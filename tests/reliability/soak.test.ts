@@ -1,5 +1,5 @@
 /**
- * G1 (reliability.md §7), long form only (npm run soak, or FERRISIGHT_LONG=1): 2,000 readings/s
+ * Long form only (npm run soak, or FERRISIGHT_LONG=1): 2,000 readings/s
  * (200 msg/s × 10) for SOAK_MINUTES (default 30) through the real broker and worker → nothing
  * lost or duplicated, p99 publish → commit ≤ 1 s, RSS growth of broker and worker ≤ 10 % (from
  * the 10 % mark, after warm-up, to the end). Commit → dashboard is measured by bench:ingest (c).
@@ -22,7 +22,7 @@ const RATE = 2_000;
 let db: TestDatabase;
 let rig: Rig;
 
-describe.skipIf(!LONG)('soak (G1)', () => {
+describe.skipIf(!LONG)('soak', () => {
   beforeAll(async () => {
     ({ db, rig } = await startLiveRig(PROBES));
   });
@@ -69,8 +69,8 @@ describe.skipIf(!LONG)('soak (G1)', () => {
     const end = rss[rss.length - 1];
     const growth = (k: 'broker' | 'worker') => (end[k] - base[k]) / base[k];
     const p99 = quantile(commitMs, 0.99);
-    console.log(formatComparison(`G1 soak ${MINUTES} min`, c));
-    console.log(`G1 publish→commit p50 ${quantile(commitMs, 0.5)} ms, p99 ${p99} ms (n=${commitMs.length}); RSS broker ${base.broker.toFixed(0)}→${end.broker.toFixed(0)} MiB `
+    console.log(formatComparison(`soak ${MINUTES} min`, c));
+    console.log(`publish→commit p50 ${quantile(commitMs, 0.5)} ms, p99 ${p99} ms (n=${commitMs.length}); RSS broker ${base.broker.toFixed(0)}→${end.broker.toFixed(0)} MiB `
       + `(${(100 * growth('broker')).toFixed(1)} %), worker ${base.worker.toFixed(0)}→${end.worker.toFixed(0)} MiB (${(100 * growth('worker')).toFixed(1)} %)`);
     expect(c.ok).toBe(true);
     expect(p99).toBeLessThanOrEqual(1_000);

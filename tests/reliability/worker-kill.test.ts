@@ -1,6 +1,6 @@
 /**
- * G2 (reliability.md §7): the ingest worker SIGKILLed repeatedly under a 2,000 readings/s stream
- * (200 msg/s × 10, G1's shape) → 0 lost, 0 duplicated, backlog drained within 30 s.
+ * The ingest worker SIGKILLed repeatedly under a 2,000 readings/s stream
+ * (200 msg/s × 10, the soak's shape) → 0 lost, 0 duplicated, backlog drained within 30 s.
  * Short form: 3 kills over ~20 s. FERRISIGHT_LONG=1 (or npm run soak): 10 kills over ~2 min.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -28,7 +28,7 @@ async function storedCount(): Promise<number> {
   return Number(n);
 }
 
-describe('ingest worker SIGKILL under load (G2)', () => {
+describe('ingest worker SIGKILL under load', () => {
   it(`when the worker is SIGKILLed ${KILLS} times during a ${RATE} readings/s stream, then nothing is lost or duplicated and the backlog drains within 30 s`, async () => {
     const device = await rig.device('relia-dev-kill', { clean: false });
     const stream = rig.stream();
@@ -57,17 +57,17 @@ describe('ingest worker SIGKILL under load (G2)', () => {
     const drained = await waitForCount(rig.pool, stream.sent.snapshot(), 60_000);
     const c = await compareStored(rig.pool, stream.sent.snapshot());
     const catchUpMs = await Promise.all(catchUps);
-    console.log(formatComparison(`G2 worker SIGKILL ×${kills}`, c));
-    console.log(`G2 sent ${run.readings} readings in ${(run.elapsedMs / 1000).toFixed(1)} s (${Math.round(run.readings / (run.elapsedMs / 1000))}/s); `
+    console.log(formatComparison(`worker SIGKILL ×${kills}`, c));
+    console.log(`sent ${run.readings} readings in ${(run.elapsedMs / 1000).toFixed(1)} s (${Math.round(run.readings / (run.elapsedMs / 1000))}/s); `
       + `catch-up after each restart: ${catchUpMs.map((ms) => `${(ms / 1000).toFixed(1)} s`).join(', ')}; drained ${((Date.now() - endedAt) / 1000).toFixed(1)} s after the last PUBACK`);
 
     expect(kills).toBe(KILLS);
     expect(drained.reached).toBe(true);
     expect(c).toMatchObject({ lost: 0, duplicated: 0, unexpected: 0, conflicts: 0, ok: true });
     expect(Math.max(...catchUpMs)).toBeLessThanOrEqual(30_000);
-    // G7: after crashes and redeliveries, the 1 m and 1 h rollups still equal the raw aggregate.
+    // After crashes and redeliveries, the 1 m and 1 h rollups still equal the raw aggregate.
     const rollups = await rollupMismatches(rig.pool, rig.probes.map((p) => p.id));
-    console.log(`G7 rollup buckets differing from raw after the kills: ${JSON.stringify(rollups)}`);
+    console.log(`rollup buckets differing from raw after the kills: ${JSON.stringify(rollups)}`);
     expect(rollups).toEqual({ minute: 0, hour: 0 });
   }, DURATION_MS + 120_000);
 });

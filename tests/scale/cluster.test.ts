@@ -1,5 +1,5 @@
 /**
- * Scale-out acceptance (issue 9, README "Scaling out"): 2 ingest workers on site slices,
+ * Scale-out acceptance (README "Scaling out"): 2 ingest workers on site slices,
  * 2 API nodes sharing socket.io through Redis, 2 notifiers under one lease, all on loopback
  * as real processes. Runs in CI (CI=true) and with FERRISIGHT_SCALE=1; see vite.config.ts.
  */

@@ -1,5 +1,5 @@
 /**
- * G10 (reliability.md §7, ASVS 8.2–8.3, 16.3.2): the role × route × socket-event matrix.
+ * The role × route × socket-event matrix (ASVS 8.2–8.3, 16.3.2).
  * tests/api/role-matrix.test.ts already proves which role gets which HTTP status; this file adds
  * what it does not: every refusal is logged (who, role, method, path), and the socket events —
  * generated from what the server actually listens to, so a new event cannot slip past the matrix.
@@ -18,7 +18,7 @@ import { attachRealtime } from '../../api/src/realtime/socket.ts';
 import { ROLES, type Role } from '../../shared/schemas/auth.ts';
 import { createTestApi, TEST_SECRET, type TestApi } from '../helpers/api.ts';
 
-/** Client → server socket events and who may use them; every signed-in role sees every alarm (domain.md 5). */
+/** Client → server socket events and who may use them; every signed-in role sees every alarm. */
 const SOCKET_EVENTS: Record<string, { allowed: readonly Role[]; args: unknown[] }> = {
   'alarm:since': { allowed: ROLES, args: [0] },
 };
@@ -71,7 +71,7 @@ describe('HTTP refusals are logged (ASVS 16.3.2)', () => {
       }
     }
     warn.mockRestore();
-    console.log(`G10 ${refusals} role × route refusals, each logged`);
+    console.log(`${refusals} role × route refusals, each logged`);
     expect(refusals).toBeGreaterThan(20);
   }, 120_000);
 });

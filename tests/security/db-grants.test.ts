@@ -1,6 +1,6 @@
 /**
- * G11 (reliability.md §7; 21 CFR 11.10(e) "record changes shall not obscure previously recorded
- * information"): the application's database user cannot UPDATE or DELETE audit and history
+ * 21 CFR 11.10(e), "record changes shall not obscure previously recorded information": the
+ * application's database user cannot UPDATE or DELETE audit and history
  * rows — MariaDB refuses it, not the code — and the application still does all its work under
  * those grants, including 1,000 concurrent setpoint (band) changes → exactly 1,000 audit rows.
  */
@@ -74,7 +74,7 @@ describe('database grants of the app user', () => {
   });
 });
 
-describe('the API under the app user\'s grants (G11)', () => {
+describe('the API under the app user\'s grants', () => {
   it('when 1,000 band changes arrive at once over 10 tanks, then all are applied and exactly 1,000 audit rows are written', async () => {
     const auth = createAuthService({ jwtSecret: 'grants-test-secret-0123456789-0123456789', ttlS: 3600 }, new LoginThrottle(1000, 1000));
     const api = createApp({ auth, ttlS: 3600 });
@@ -94,7 +94,7 @@ describe('the API under the app user\'s grants (G11)', () => {
     const statuses = results.reduce<Record<number, number>>((a, r) => ({ ...a, [r.status]: (a[r.status] ?? 0) + 1 }), {});
     const [{ n1: after }] = await conn.query("SELECT COUNT(*) AS n1 FROM audit_log WHERE action LIKE 'band.%'");
     const [{ changes }] = await conn.query('SELECT COUNT(*) AS changes FROM band_changes');
-    console.log(`G11 1,000 concurrent band changes in ${((Date.now() - started) / 1000).toFixed(1)} s: statuses ${JSON.stringify(statuses)}, audit rows +${Number(after) - Number(before)}, band_changes ${changes}`);
+    console.log(`1,000 concurrent band changes in ${((Date.now() - started) / 1000).toFixed(1)} s: statuses ${JSON.stringify(statuses)}, audit rows +${Number(after) - Number(before)}, band_changes ${changes}`);
     expect(statuses).toEqual({ 200: 1000 });
     expect(Number(after) - Number(before)).toBe(1000);
     expect(Number(changes)).toBe(1000);

@@ -1,5 +1,5 @@
 /**
- * G10 (reliability.md §5, ASVS 3.4, 3.5, 4.4): helmet headers, CORS closed by default (no
+ * ASVS 3.4, 3.5, 4.4: helmet headers, CORS closed by default (no
  * Access-Control-Allow-Origin, preflights refused), no state change on GET (every GET route in
  * app.locals.routes, for every role, leaves every table's checksum unchanged), and CSRF: every
  * state-changing route without the X-Ferrisight-Csrf header is refused and changes nothing.
@@ -96,7 +96,7 @@ describe('no state change on GET (ASVS 3.5.3)', () => {
     }
     const after = await checksums();
     const changed = Object.keys(before).filter((k) => before[k] !== after[k]);
-    console.log(`G10 ${gets.length} GET routes × ${ROLES.length} roles: tables changed ${JSON.stringify(changed)}`);
+    console.log(`${gets.length} GET routes × ${ROLES.length} roles: tables changed ${JSON.stringify(changed)}`);
     expect(changed).toEqual([]);
   }, 120_000);
 });
@@ -121,7 +121,7 @@ describe('CSRF (ASVS 3.5.1–3.5.2)', () => {
     }
     const after = await checksums();
     expect(Object.keys(before).filter((k) => before[k] !== after[k])).toEqual([]);
-    console.log(`G10 CSRF: ${writes.length} state-changing routes refused without the header`);
+    console.log(`CSRF: ${writes.length} state-changing routes refused without the header`);
   }, 60_000);
 
   it('when a form-encoded cross-site POST arrives (what an HTML form can send), then it is refused', async () => {

@@ -1,9 +1,9 @@
 /**
- * G12 (reliability.md §7): every unauthorized MQTT connect / publish / subscribe is refused (a
+ * Every unauthorized MQTT connect / publish / subscribe is refused (a
  * generated identity × action × topic matrix on the real broker process; tests/ingest/broker-auth
  * has the hand-picked cases), and a frozen subscriber — service account, QoS 1, never reads its
  * socket — stalls nobody for more than 10 s (aedes drainTimeout; without it one stuck client
- * blocks every delivery once the emitter's concurrency slots fill, reliability.md §1).
+ * blocks every delivery once the emitter's concurrency slots fill).
  */
 import net from 'node:net';
 import mqtt, { type MqttClient } from 'mqtt';
@@ -51,7 +51,7 @@ const WHO: Who[] = [
 const open = (w: Who, clientId = `sec-${Math.random().toString(36).slice(2, 10)}`) =>
   mqtt.connectAsync(`mqtt://127.0.0.1:${rig.mqttPort}`, { username: w.username, password: w.password, clientId, protocolVersion: 4, reconnectPeriod: 0, connectTimeout: 3_000 });
 
-describe('MQTT identity × action × topic (G12)', () => {
+describe('MQTT identity × action × topic', () => {
   it.each(WHO)('when $label connects, then it is $ok', async (w) => {
     const attempt = open(w).then((c) => c.endAsync(true).then(() => true), () => false);
     expect(await attempt).toBe(w.ok);
@@ -115,7 +115,7 @@ function frozenSubscriber(port: number): Promise<net.Socket> {
   });
 }
 
-describe('frozen subscriber (G12)', () => {
+describe('frozen subscriber', () => {
   it('when a QoS 1 subscriber stops reading, then others are stalled for at most 10 s and every reading is still stored', async () => {
     const frozen = await frozenSubscriber(rig.mqttPort);
     await sleep(500);
@@ -137,11 +137,11 @@ describe('frozen subscriber (G12)', () => {
     const maxGap = Math.max(0, ...gaps);
     const cut = rig.broker!.lines.some((l) => l.includes('ferrisight-frozen') && l.includes('drain timeout'));
     const cutClients = [...new Set(rig.broker!.lines.filter((l) => l.includes("drain timeout")).map((l) => JSON.parse(l).clientId as string))];
-    console.log(`G12 frozen subscriber: longest delivery gap for others ${maxGap} ms; cut by drainTimeout: ${JSON.stringify(cutClients)}; ${formatComparison('stream', c)}`);
+    console.log(`frozen subscriber: longest delivery gap for others ${maxGap} ms; cut by drainTimeout: ${JSON.stringify(cutClients)}; ${formatComparison('stream', c)}`);
     await Promise.all([watcher.endAsync(true), flooder.endAsync(true)]);
     frozen.destroy();
     expect(cut).toBe(true);
-    // drainTimeout is 5 s, so the gap sits a little above it; G12 allows 10 s.
+    // drainTimeout is 5 s, so the gap sits a little above it; the limit is 10 s.
     expect(maxGap).toBeLessThanOrEqual(10_000);
     expect(drained.reached && c.ok).toBe(true);
   }, 120_000);

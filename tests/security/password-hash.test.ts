@@ -1,5 +1,5 @@
 /**
- * G10 (reliability.md §5, ASVS 5.0 11.4.2 + Appendix C): a password hash must cost 50–250 ms
+ * ASVS 5.0 11.4.2 + Appendix C: a password hash must cost 50–250 ms
  * so guessing is slow but sign-in is not. tests/api/auth.test.ts checks the bcrypt cost factor;
  * this measures what that factor costs on the machine running the tests. The lower bound is
  * asserted (strength); the upper one is printed, since a shared CPU only ever makes it slower.
@@ -18,7 +18,7 @@ describe('password hashing cost', () => {
       times.push(performance.now() - t);
     }
     const median = times.sort((a, b) => a - b)[1];
-    console.log(`G10 bcrypt cost ${BCRYPT_COST}: compare median ${median.toFixed(0)} ms (target 50–250 ms: ${median <= 250 ? 'met' : 'above on this machine now'})`);
+    console.log(`bcrypt cost ${BCRYPT_COST}: compare median ${median.toFixed(0)} ms (target 50–250 ms: ${median <= 250 ? 'met' : 'above on this machine now'})`);
     expect(median).toBeGreaterThanOrEqual(50);
   }, 30_000);
 });

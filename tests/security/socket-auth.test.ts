@@ -1,5 +1,5 @@
 /**
- * G8/G10 on socket.io (tests/api/auth.test.ts covers the same tokens on HTTP): forged, alg none,
+ * Token checks on socket.io (tests/api/auth.test.ts covers the same tokens on HTTP): forged, alg none,
  * wrong algorithm, expired, not-yet-valid, disabled user, after sign-out → handshake refused and
  * logged (ASVS 9.1–9.2, 7.4, 16.3.1); a live socket is cut ≤ 5 s after its token's exp (middleware
  * runs once per connection: auth0-socketio-jwt#38), at sign-out and when the user is disabled.
@@ -101,7 +101,7 @@ describe('live sockets are cut when the session ends', () => {
     const { result, socket } = await tryConnect({ token });
     expect(result).toBe('connected');
     const cut = await cutAfter(socket);
-    console.log(`G8 socket cut ${cut - expMs} ms after exp`);
+    console.log(`socket cut ${cut - expMs} ms after exp`);
     expect(cut - expMs).toBeLessThanOrEqual(5_000);
     expect(cut - expMs).toBeGreaterThan(-1_000);
   }, 15_000);

@@ -1,5 +1,5 @@
 /**
- * G10 uploads and exports (issue 8 "Security suite"): oversized, wrong type and path-like file
+ * Uploads and exports: oversized, wrong type and path-like file
  * names on the two upload routes (assay CSV, historical readings import), and CSV formula
  * injection (OWASP "CSV Injection": cells starting with = + - @ tab CR) in every CSV the API
  * streams — readings export and import rejections — plus the browser-side csvCell.
@@ -82,7 +82,7 @@ describe('uploads', () => {
     const job = await importJob('probe,time,orp,temp\n', `../${path.basename(target)}`);
     expect(existsSync(target)).toBe(false);
     expect(readdirSync(path.join(dataDir, 'uploads')).every((f) => /^import-\d+-[0-9a-f]+\.csv$/.test(f))).toBe(true);
-    console.log(`G10 import with a path-like name: stored under uploads/ with a generated name; recorded name ${JSON.stringify(job.fileName)}`);
+    console.log(`import with a path-like name: stored under uploads/ with a generated name; recorded name ${JSON.stringify(job.fileName)}`);
   });
 
   it('when an import is an image, then the job fails or rejects rows with a reason and the server stays up', async () => {

@@ -3,7 +3,7 @@ import { faraday, gasConstant } from 'mathjs';
 import { fitFormalPotential, ratioToOrpMv, referenceById, type AssaySample, type ReferenceElectrode } from '../../shared/redox';
 
 // Synthetic assays are generated from the Nernst equation written out here with
-// mathjs 15.2.0 constants (domain.md 2 and 7.1), independently of the code under test.
+// mathjs 15.2.0 constants (CODATA 2018), independently of the code under test.
 const F = faraday.toNumber('C/mol');
 const R = gasConstant.toNumber('J/(mol K)');
 const agcl3m = referenceById('agcl-3m');
@@ -39,7 +39,7 @@ function synthAssays(truth: Truth, temps: number[], ratios: number[], noiseMv: n
 
 describe('fitFormalPotential without a temperature coefficient', () => {
   it('when assays carry ±1 mV noise at one temperature, then E°′ is recovered within 1 mV and the rms is near the noise', () => {
-    // 0.68 V: formal potential in 1 M H2SO4 (Skoog et al., domain.md 7.2), used here only as a realistic truth
+    // 0.68 V: formal potential in 1 M H2SO4 (Skoog et al., table of formal potentials), used here only as a realistic truth
     const samples = synthAssays({ e0V: 0.68, kVPerK: 0 }, [42], [0.5, 1, 2, 4, 8, 15, 25, 40], 1, 7);
     const fit = fitFormalPotential(samples, { reference: agcl3m });
     expect(Math.abs(fit.formalPotentialV - 0.68) * 1000).toBeLessThan(1);
@@ -71,7 +71,7 @@ describe('fitFormalPotential without a temperature coefficient', () => {
 
 describe('fitFormalPotential with a temperature coefficient', () => {
   it('when assays span 20–80 °C with ±1 mV noise, then E°′25 and k are recovered within 1 mV over the span', () => {
-    // k = +1.2 mV/K: the order of the published dE°/dT for Fe3+/Fe2+ (domain.md 7.2), used only as a realistic truth
+    // k = +1.2 mV/K: the order of the published dE°/dT for Fe3+/Fe2+ (Bratsch 1989, J. Phys. Chem. Ref. Data 18:1; from memory), used only as a realistic truth
     const truth = { e0V: 0.68, kVPerK: 0.0012 };
     const samples = synthAssays(truth, [20, 35, 50, 65, 80], [0.5, 2, 8, 20], 1, 42);
     const fit = fitFormalPotential(samples, { reference: agcl3m, fitTempCoeff: true });

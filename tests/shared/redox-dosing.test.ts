@@ -5,7 +5,7 @@ const base = { volumeM3: 500, totalFeGPerL: 20, ratioNow: 1, ratioTarget: 3, oxi
 
 describe('oxidantDemand', () => {
   it('when 500 m³ at 20 g/L total Fe goes from ratio 1 to 3 with H2O2 at 80 % utilisation, then 44.767 kmol Fe2+ and 951.71 kg H2O2', () => {
-    // Hand-worked from domain.md 2 (stoichiometry) and IUPAC molar masses:
+    // Hand-worked from the balanced half-reactions in acid and IUPAC molar masses:
     //   f_now = 1/2 = 0.5, f_target = 3/4 = 0.75, Δf = 0.25
     //   Fe in tank = 20 g/L × 500 m³ = 10 000 kg; Fe2+ to oxidise = 0.25 × 10 000 = 2 500 kg
     //   2 500 kg / 55.845 g/mol = 44.7668 kmol Fe2+
@@ -16,7 +16,7 @@ describe('oxidantDemand', () => {
   });
 
   it('when the oxidant is O2 or MnO2, then the stoichiometry 0.25 and 0.5 mol per mol Fe2+ applies', () => {
-    // domain.md 2: O2 0.25 mol, MnO2 0.5 mol per mol Fe2+
+    // balanced half-reactions: O2 0.25 mol, MnO2 0.5 mol per mol Fe2+
     const kmol = 2500 / 55.845;
     expect(oxidantDemand({ ...base, oxidant: 'o2', utilisation: 1 }).oxidantKg).toBeCloseTo(kmol * 0.25 * 31.998, 6);
     expect(oxidantDemand({ ...base, oxidant: 'mno2', utilisation: 1 }).oxidantKg).toBeCloseTo(kmol * 0.5 * 86.9368, 6);

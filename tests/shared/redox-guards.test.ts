@@ -18,7 +18,7 @@ import {
 } from '../../shared/redox';
 
 // Guards: non-finite numbers, temperatures outside the range, Fe2+ = 0 or > total Fe
-// must give a clear error, never Infinity or NaN (domain.md 7.8).
+// must give a clear error, never Infinity or NaN.
 const ref = referenceById('agcl-sat');
 const conditions = { tempC: 25, reference: ref, formalPotentialV: 0.68 };
 const check = { standard: 'zobell' as const, tempC: 25, reference: ref, readingMv: 230, toleranceMv: 10 };

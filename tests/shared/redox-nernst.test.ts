@@ -17,7 +17,7 @@ const agclSat = referenceById('agcl-sat');
 
 describe('orpToRatio', () => {
   it("when Light's solution reads +476 mV vs a 0.199 V reference at 25 °C with E°′ = 0.675 V, then Eh is 0.675 V and the ratio 1.000", () => {
-    // Light's solution 0.675 V vs SHE at 25 °C (Standard Methods 2580; ASTM D1498); worked check domain.md 7.8
+    // Light's solution 0.675 V vs SHE at 25 °C (Standard Methods 2580; ASTM D1498)
     const result = orpToRatio({ orpMv: 476, tempC: 25, reference: agclSat, formalPotentialV: 0.675 });
     expect(result.ehV).toBeCloseTo(0.675, 9);
     expect(result.ratio).toBeCloseTo(1.0, 3);
@@ -26,7 +26,7 @@ describe('orpToRatio', () => {
   });
 
   it('when the formal potential has a temperature coefficient, then E°′(T) = E°′25 + k·(T − 298.15 K) is used', () => {
-    // domain.md 2: E°′(T) = E°′(25 °C) + k·(T − 298.15 K)
+    // Nernst with a linear formal-potential drift: E°′(T) = E°′(25 °C) + k·(T − 298.15 K)
     expect(formalPotentialAtV(0.68, 45, 0.001)).toBeCloseTo(0.7, 12);
     const she = referenceById('she');
     const atE0 = orpToRatio({ orpMv: 700, tempC: 45, reference: she, formalPotentialV: 0.68, formalCoeffVPerK: 0.001 });
@@ -35,7 +35,7 @@ describe('orpToRatio', () => {
 
   it('when the ratio is beyond 1:10 000 either way, then it is flagged outside-range', () => {
     const she = referenceById('she');
-    // 4 decades at 25 °C is 4 × 59.159 mV = 236.6 mV (domain.md 7.1 [C])
+    // 4 decades at 25 °C is 4 × 59.159 mV = 236.6 mV (arithmetic from CODATA 2018)
     expect(orpToRatio({ orpMv: 680 + 230, tempC: 25, reference: she, formalPotentialV: 0.68 }).flag).toBe('ok');
     expect(orpToRatio({ orpMv: 680 + 240, tempC: 25, reference: she, formalPotentialV: 0.68 }).flag).toBe('outside-range');
     expect(orpToRatio({ orpMv: 680 - 240, tempC: 25, reference: she, formalPotentialV: 0.68 }).flag).toBe('outside-range');
@@ -71,7 +71,7 @@ describe('orpToRatio', () => {
 
 describe('ratioToOrpMv round trip', () => {
   it('when a reading is converted to a ratio and back, for every reference electrode and temperature, then the reading is recovered', () => {
-    // inverse of domain.md 2: E_probe = E°′(T) + (R·T/F)·ln(ratio) − E_ref(T)
+    // inverse of the Nernst conversion: E_probe = E°′(T) + (R·T/F)·ln(ratio) − E_ref(T)
     fc.assert(
       fc.property(
         fc.constantFrom(...REFERENCE_ELECTRODES),
@@ -107,7 +107,7 @@ describe('ratioToOrpMv round trip', () => {
 
 describe('ironSplit and ferric fraction', () => {
   it('when total Fe is 10 g/L at ratio 3, then Fe3+ is 7.5 g/L and Fe2+ 2.5 g/L', () => {
-    // domain.md 7.8 worked check
+    // worked check, arithmetic from the Nernst equation
     const { fe3, fe2 } = ironSplit(3, 10);
     expect(fe3).toBeCloseTo(7.5, 12);
     expect(fe2).toBeCloseTo(2.5, 12);
@@ -132,12 +132,12 @@ describe('ironSplit and ferric fraction', () => {
 
 describe('ratioUncertainty', () => {
   it('when the probe tolerance is ±10 mV at 25 °C, then the ratio is uncertain by a factor of about 1.48', () => {
-    // domain.md 2: "a ±10 mV probe tolerance is a factor of ≈1.48 either way"
+    // exp(0.010·F/(R·T)) at 25 °C: a ±10 mV probe tolerance is a factor of ≈1.48 either way
     expect(ratioUncertainty({ tempC: 25, toleranceMv: 10 }).factor).toBeCloseTo(1.48, 2);
   });
 
   it('when the tolerance is 1 mV at 25 °C, then ln(ratio) moves about 0.039 (3.9 %)', () => {
-    // domain.md 2: d(ln ratio) = dE·F/(R·T); "At 25 °C, 1 mV ≈ 3.9 % in ratio"
+    // d(ln ratio) = dE·F/(R·T): at 25 °C, 1 mV ≈ 3.9 % in ratio
     expect(Math.log(ratioUncertainty({ tempC: 25, toleranceMv: 1 }).factor)).toBeCloseTo(0.039, 3);
   });
 

@@ -3,13 +3,13 @@ import { REFERENCE_ELECTRODES, referenceById, referencePotentialV } from '../../
 
 describe('REFERENCE_ELECTRODES', () => {
   it.each([
-    ['agcl-sat', 0.199], // Skoog; Sawyer (domain.md 7.3)
-    ['agcl-sat-bf', 0.197], // Bard & Faulkner (domain.md 7.3)
-    ['agcl-3.5m', 0.205], // domain.md 7.3 [S]
-    ['agcl-3m', 0.21], // domain.md 7.3 [S] (one of two tabulated values, 0.210 / 0.207)
-    ['agcl-1m', 0.236], // domain.md 7.3 [S]
-    ['sce', 0.2444], // Skoog (domain.md 7.3)
-    ['sce-bf', 0.2412], // Bard & Faulkner (domain.md 7.3)
+    ['agcl-sat', 0.199], // Skoog; Sawyer
+    ['agcl-sat-bf', 0.197], // Bard & Faulkner
+    ['agcl-3.5m', 0.205], // Skoog et al.
+    ['agcl-3m', 0.21], // published tables (one of two tabulated values, 0.210 / 0.207)
+    ['agcl-1m', 0.236], // published tables
+    ['sce', 0.2444], // Skoog
+    ['sce-bf', 0.2412], // Bard & Faulkner
     ['she', 0], // definition of the SHE
   ])('when %s is looked up, then its 25 °C potential is %s V vs SHE', (id, e25V) => {
     expect(referenceById(id).e25V).toBe(e25V);
@@ -42,7 +42,7 @@ describe('referencePotentialV', () => {
     [25, 0.199],
     [35, 0.189],
   ])('when Ag/AgCl (sat. KCl) is at %s °C, then it reproduces the tabulated %s V', (tempC, v) => {
-    // Skoog 15/25/35 °C table 0.209/0.199/0.189 V (domain.md 7.3)
+    // Skoog 15/25/35 °C table 0.209/0.199/0.189 V
     expect(referencePotentialV(referenceById('agcl-sat'), tempC)).toBeCloseTo(v, 6);
   });
 
@@ -51,12 +51,12 @@ describe('referencePotentialV', () => {
     [25, 0.205],
     [35, 0.197],
   ])('when Ag/AgCl (3.5 M KCl) is at %s °C, then it is within 0.5 mV of the tabulated %s V', (tempC, v) => {
-    // 15/25/35 °C table 0.212/0.205/0.197 V (domain.md 7.3); the linear fit is off by ≤ 0.5 mV
+    // 15/25/35 °C table 0.212/0.205/0.197 V (Skoog et al.); the linear fit is off by ≤ 0.5 mV
     expect(Math.abs(referencePotentialV(referenceById('agcl-3.5m'), tempC) - v)).toBeLessThanOrEqual(0.0005 + 1e-12);
   });
 
   it('when the SCE is 10 K above 25 °C, then it has dropped by 6.7 mV', () => {
-    // about -0.67 mV/K (domain.md 7.3 [C])
+    // about -0.67 mV/K, calculated from the tabulated values
     expect(referencePotentialV(referenceById('sce'), 35)).toBeCloseTo(0.2444 - 0.0067, 9);
   });
 

@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { LIGHT_SOLUTION, ZOBELL_TABLE, probeCheck, referenceById, standardPotentialV, type ReferenceElectrode } from '../../shared/redox';
 
 const agclSat = referenceById('agcl-sat');
-// A probe whose maker quotes 0.2135 V with no temperature drift (domain.md 7.8 worked check)
+// A probe whose maker quotes 0.2135 V with no temperature drift (worked check against Table 2580:I)
 const ref02135: ReferenceElectrode = { id: 'custom', label: 'Custom 0.2135 V', e25V: 0.2135, coeffVPerK: 0, source: 'test' };
 
 describe("probeCheck with ZoBell's solution", () => {
@@ -15,7 +15,7 @@ describe("probeCheck with ZoBell's solution", () => {
     [25, 0.428],
     [30, 0.417],
   ])('when the solution is at %s °C, then the expected reading is the tabulated %s V minus the reference at T', (tempC, ehV) => {
-    // Standard Methods 2580, Table 2580:I; Ag/AgCl sat. 0.199 V, -1.0 mV/K (Skoog table, domain.md 7.3)
+    // Standard Methods 2580, Table 2580:I; Ag/AgCl sat. 0.199 V, -1.0 mV/K (Skoog table)
     const expectedMv = (ehV - (0.199 - 0.001 * (tempC - 25))) * 1000;
     const result = probeCheck({ standard: 'zobell', tempC, reference: agclSat, readingMv: expectedMv, toleranceMv: 10 });
     expect(result.expectedMv).toBeCloseTo(expectedMv, 9);
@@ -24,7 +24,7 @@ describe("probeCheck with ZoBell's solution", () => {
   });
 
   it('when read at 10 °C against a 0.2135 V reference, then +247.5 mV is expected and +236 mV fails ±10 mV but passes ±15 mV', () => {
-    // domain.md 7.8 worked check; ±15 mV from a probe maker's manual, ±10 mV common practice (domain.md 7.4)
+    // worked check against Table 2580:I; ±15 mV from a probe maker's manual, ±10 mV common practice
     const base = { standard: 'zobell' as const, tempC: 10, reference: ref02135, readingMv: 236 };
     const strict = probeCheck({ ...base, toleranceMv: 10 });
     expect(strict.expectedMv).toBeCloseTo(247.5, 9);
@@ -39,7 +39,7 @@ describe("probeCheck with ZoBell's solution", () => {
   });
 
   it('when compared across 1–30 °C, then the table agrees with Eh ≈ 0.428 − 0.0022·(t − 25) within 2 mV', () => {
-    // Nordstrom 1977, Geochim. Cosmochim. Acta 41:1835 (domain.md 7.4)
+    // Nordstrom 1977, Geochim. Cosmochim. Acta 41:1835
     for (let t = 1; t <= 30; t += 0.5) {
       expect(Math.abs(standardPotentialV('zobell', t) - (0.428 - 0.0022 * (t - 25)))).toBeLessThan(0.002);
     }

@@ -109,9 +109,9 @@ describe('band changes', () => {
   });
 
   it('when an admin raises the approval factor to 5, then a threefold change applies at once', async () => {
-    const siteId = (await as(t, 'operator').get('/api/workbench/settings')).body.sites[0].siteId;
-    expect((await as(t, 'metallurgist').put('/api/workbench/settings', { siteId, key: 'bandApprovalFactor', value: 5, reason: 'x' })).status).toBe(403);
-    const set = await as(t, 'admin').put('/api/workbench/settings', { siteId, key: 'bandApprovalFactor', value: 5, reason: 'Site MOC procedure rev 3' });
+    const siteId = (await as(t, 'operator').get('/api/site-settings')).body.sites[0].siteId;
+    expect((await as(t, 'metallurgist').put('/api/site-settings', { siteId, key: 'bandApprovalFactor', value: 5, reason: 'x' })).status).toBe(403);
+    const set = await as(t, 'admin').put('/api/site-settings', { siteId, key: 'bandApprovalFactor', value: 5, reason: 'Site MOC procedure rev 3' });
     expect(set.body.settings.bandApprovalFactor).toBe(5);
     const b2 = await tankId(t, 'B2');
     const res = await as(t, 'metallurgist').put(`/api/bands/${b2}`, { low: 1.5, high: 6, target: null, reason: 'Higher window for the new ore' });

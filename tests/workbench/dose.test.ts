@@ -2,8 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { adviseDose } from '../../web/src/features/dose/utils/dose-steps.ts';
 
 /**
- * Hand-worked example. Stoichiometry from the domain handbook, section 2 (balanced half-reactions
- * in acid): H₂O₂ 0.5 mol, MnO₂ 0.5 mol and O₂ 0.25 mol per mol Fe²⁺; molar masses from standard
+ * Hand-worked example. Stoichiometry from the balanced half-reactions in acid: H₂O₂ 0.5 mol, MnO₂ 0.5 mol and O₂ 0.25 mol per mol Fe²⁺; molar masses from standard
  * atomic weights (H₂O₂ 34.0147, MnO₂ 86.9368, O₂ 31.998, Fe 55.845 g/mol).
  *
  * Tank 400 m³, total Fe 10 g/L, ratio 3 → 9:

@@ -1,5 +1,6 @@
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
+import { toSqlTs } from '../../api/src/db/timestamps.ts';
 import type { Role } from '../../shared/schemas/auth.ts';
 import type { TestApi } from '../helpers/api.ts';
 
@@ -34,7 +35,6 @@ export async function auditActions(t: TestApi, entity: string, entityId: number 
   return rows.map((r) => r.action);
 }
 
-const sqlTs = (ms: number) => new Date(ms).toISOString().slice(0, 23).replace('T', ' ');
 
 /** Writes converted readings straight into the table (the ingest worker's job in production). */
 export async function insertReadings(
@@ -42,7 +42,7 @@ export async function insertReadings(
 ): Promise<void> {
   for (let i = 0; i < rows.length; i += 1000) {
     const values = rows.slice(i, i + 1000).map((r) =>
-      `(${probeId}, '${sqlTs(r.tsMs)}', ${r.orpMv}, ${r.tempC}, 0.7, ${r.ratio}, ${r.ratio / (1 + r.ratio)}, 'ok', ${r.version ?? 1}, NOW(3))`);
+      `(${probeId}, '${toSqlTs(r.tsMs)}', ${r.orpMv}, ${r.tempC}, 0.7, ${r.ratio}, ${r.ratio / (1 + r.ratio)}, 'ok', ${r.version ?? 1}, NOW(3))`);
     await t.sequelize.query(`INSERT INTO readings (probe_id, ts, orp_mv, temp_c, eh_v, ratio, ferric_fraction, flag, calibration_version, received_at) VALUES ${values.join(',')}`);
   }
 }

@@ -27,7 +27,7 @@ describe('probe checks against standard solutions', () => {
 
   it("when ZoBell's solution at 10 °C is read against a 0.2135 V reference, then +236 mV is 11.5 mV off: fails ±10, passes ±15", async () => {
     const probe = await probeOf(t, 'A2');
-    // Handbook worked check 7.8: Table 2580:I gives 0.461 V at 10 °C, so the expected reading is +247.5 mV.
+    // Worked check: Table 2580:I gives 0.461 V at 10 °C, so the expected reading is +247.5 mV.
     await t.sequelize.query(`UPDATE probes SET reference_e25_v = 0.2135, reference_coeff_v_per_k = 0 WHERE id = ${probe.id}`);
     const strict = await check({ probeId: probe.id, standard: 'zobell', tempC: 10, readingMv: 236, toleranceMv: 10 });
     expect(strict.body.check.expectedMv).toBeCloseTo(247.5, 9);

@@ -6,7 +6,7 @@ import { logger } from '../lib/logger.ts';
 /**
  * DATABASE_READ_URL: a MariaDB replica for read-only trend queries, which are the heavy
  * reads (days of readings per tank page), so they stop competing with ingest commits on the
- * primary. Replication is asynchronous: a replica may be seconds behind (reliability.md §3),
+ * primary. Replication is asynchronous: a replica may be seconds behind,
  * which a trend tolerates (live values arrive over socket.io) but a decision never does, so
  * nothing else reads from it. A failing replica falls back to the primary, with a log line.
  */

@@ -11,14 +11,14 @@ export const MAX_DISCONNECTION_MS = 2 * 60_000;
  * Several API nodes behind one address (REDIS_URL set; unset = one node, no Redis).
  *
  * - Adapter: Redis Streams (@socket.io/redis-streams-adapter), the adapter that supports
- *   connection-state recovery (Redis pub/sub does not, reliability.md §4): a broadcast made on
+ *   connection-state recovery (Redis pub/sub does not, per socket.io's docs): a broadcast made on
  *   any node goes through one stream and reaches the sockets of every node, and a client that
  *   reconnects to another node gets the packets it missed from the stream.
  * - Transport: websocket only. A socket.io session then lives on one TCP connection, so any
  *   round-robin balancer works without sticky sessions; HTTP long-polling would need them (its
  *   requests may land on different nodes). The web client already tries websocket first.
  * - Middlewares run again on a recovered connection (skipMiddlewares: false), so a session
- *   revoked or expired meanwhile is still refused (reliability.md §4, JWT).
+ *   revoked or expired meanwhile is still refused.
  */
 export type SocketCluster = { options: Partial<ServerOptions>; close: () => Promise<void> };
 

@@ -63,7 +63,7 @@ export function attachAlarmFeed(io: RealtimeServer, opts: { pollMs?: number; lea
   const onConnection = (socket: RealtimeSocket) => {
     const from = socket.data.lastAlarmEventId;
     if (from !== undefined) replay(socket, from).catch((err) => logger.warn({ err: (err as Error).message }, 'alarm replay failed'));
-    // Every signed-in role sees every alarm (domain.md 5), so the only check is the session the handshake already passed;
+    // Every signed-in role sees every alarm, so the only check is the session the handshake already passed;
     // one replay per second per socket keeps a misbehaving client from loading the database.
     let lastReplayMs = 0;
     socket.on('alarm:since', (after) => {

@@ -14,7 +14,7 @@ const json = (v: unknown) => Buffer.from(JSON.stringify(v));
 
 describe('processMessage (validate + convert, no I/O)', () => {
   it("when Light's solution reads +476 mV vs 0.199 V at 25 °C, then Eh is 0.675 V and the ratio 1.000", () => {
-    // Source: Standard Methods 2580 / ASTM D1498 via domain handbook 7.8.
+    // Source: Standard Methods 2580 / ASTM D1498 (Light's solution, 0.675 V vs SHE at 25 °C).
     const res = processMessage(readingTopic('kestrel', 'LIGHT'), json({ ts: new Date(NOW).toISOString(), orpMv: 476, tempC: 25, seq: 1 }), lookup, opts);
     expect(res.rejections).toEqual([]);
     expect(res.readings[0]).toMatchObject({ probeId: 7, tankId: 3, calibrationVersion: 2, flag: 'ok', seq: 1 });

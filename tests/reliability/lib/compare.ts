@@ -58,7 +58,7 @@ export async function compareStored(pool: Pool, expected: Expected): Promise<Com
   const [{ c }] = await pool.query<{ c: number }[]>(
     `SELECT COUNT(*) AS c FROM reading_conflicts WHERE probe_id IN (${inList}) AND incoming_seq > ? AND incoming_seq <= ?`,
     [...ids, expected.seqAbove, expected.seqAbove + SEQ_SPAN]);
-  // Both sums in one figure each: CRC32 as reliability.md §6 asks, MD5 because CRC32 sums can cancel.
+  // Both sums in one figure each: CRC32 as the ground-truth check, MD5 because CRC32 sums can cancel.
   const checksumStored = `${hex(Number(sum.x))}/${hex(Number(sum.m))}`;
   const checksumSent = `${hex(expected.checksum)}/${hex(expected.checksumMd5)}`;
   const stored = Number(sum.n);
@@ -107,7 +107,7 @@ export async function deadLetterSummary(pool: Pool): Promise<{ total: number; re
 }
 
 /**
- * G7: rollups equal the raw aggregate. Buckets of these probes whose 1-minute or 1-hour rollup
+ * Rollups equal the raw aggregate. Buckets of these probes whose 1-minute or 1-hour rollup
  * disagrees with COUNT/MIN/MAX/AVG recomputed from raw readings (a missing rollup counts too).
  */
 export async function rollupMismatches(pool: Pool, probeIds: number[]): Promise<{ minute: number; hour: number }> {

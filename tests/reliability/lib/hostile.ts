@@ -1,5 +1,5 @@
 /**
- * Hostile device payloads for G6, generated with fast-check. Every one is built to be refused
+ * Hostile device payloads for hostile.test.ts, generated with fast-check. Every one is built to be refused
  * exactly once (one dead letter each), so "100 % dead-lettered" is a count, not a guess:
  * single-reading topics, or batch envelopes that fail as a whole.
  */

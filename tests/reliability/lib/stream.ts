@@ -1,11 +1,12 @@
 /**
- * The numbered stream behind every fault-injection run (reliability.md §6 "ground truth"):
+ * The numbered stream behind every fault-injection run:
  * each probe gets its own sequence 1, 2, 3…; ts and orpMv are pure functions of (probe, seq),
  * so a reading sent twice is byte-identical and the generator can state, without looking at
  * the database, what COUNT, seq range and BIT_XOR(CRC32(…)) the readings table must show.
  */
 import { createHash } from 'node:crypto';
 import { crc32 } from 'node:zlib';
+import { toSqlTs } from '../../../api/src/db/timestamps.ts';
 import { batchTopic } from '../../../shared/schemas/readings.ts';
 
 export type StreamProbe = { tag: string; id: number };
@@ -17,7 +18,7 @@ export type Expected = {
   count: number;
   /** probe id → { count, min seq, max seq } */
   perProbe: Map<number, { count: number; lo: number; hi: number }>;
-  /** XOR of CRC32('probeId,seq,YYYY-MM-DD HH:MM:SS.mmm,orpMv'), unsigned 32-bit (reliability.md §6). */
+  /** XOR of CRC32('probeId,seq,YYYY-MM-DD HH:MM:SS.mmm,orpMv'), unsigned 32-bit. */
   checksum: number;
   /**
    * XOR of the first 32 bits of MD5 of the same text. CRC32 is affine over GF(2), so XORs of
@@ -28,14 +29,13 @@ export type Expected = {
   seqAbove: number;
 };
 
-const sqlTs = (ms: number) => new Date(ms).toISOString().slice(0, 23).replace('T', ' ');
 
 /**
  * The text MariaDB's CONCAT_WS(',', probe_id, seq, ts, orp_mv) produces for a stored row.
  * orpMv is kept to whole or half millivolts so JS and MariaDB print the double the same way.
  */
 export function rowText(r: Pick<StreamReading, 'probeId' | 'seq' | 'ts' | 'orpMv'>): string {
-  return `${r.probeId},${r.seq},${sqlTs(Date.parse(r.ts))},${r.orpMv}`;
+  return `${r.probeId},${r.seq},${toSqlTs(Date.parse(r.ts))},${r.orpMv}`;
 }
 
 /** Running Expected: readings are added one by one, so a long soak keeps no per-reading state. */

@@ -47,7 +47,7 @@ export async function startCluster(o: ClusterOptions): Promise<Cluster> {
   const broker = await startBrokerProcess({ port: mqttPort, dataDir: dir, databaseUrl: o.databaseUrl });
   const common: NodeJS.ProcessEnv = {
     DATABASE_URL: o.databaseUrl, MQTT_URL: `mqtt://127.0.0.1:${mqttPort}`, SERVICE_MQTT_PASSWORD: SERVICE_PASSWORD,
-    JWT_SECRET, DATA_DIR: dir, LEASE_TTL_S: String(o.leaseTtlS ?? 3), WEB_DIST: path.join(dir, 'no-web'), ...o.extraEnv,
+    JWT_SECRET, FERRISIGHT_DATA_DIR: dir, LEASE_TTL_S: String(o.leaseTtlS ?? 3), WEB_DIST: path.join(dir, 'no-web'), ...o.extraEnv,
   };
   if (redis) common.REDIS_URL = redis.url;
 

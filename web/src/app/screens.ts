@@ -19,8 +19,6 @@ export const SCREENS = {
   setup: { path: '/plant-setup', name: 'Plant setup', roles: ['admin'], built: true },
 } as const satisfies Record<string, Screen>;
 
-export type ScreenId = keyof typeof SCREENS;
-
 export function canOpen(role: Role | undefined, screen: Screen): boolean {
   return !!role && screen.roles.includes(role);
 }

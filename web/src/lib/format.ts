@@ -1,4 +1,6 @@
-/** Display rules from the design handbook: ratio 2 significant figures below 10, integer above; mV integer; °C one decimal. */
+/** Display rules: ratio 2 significant figures below 10, integer above; mV integer; °C one decimal. */
+import { TZDate } from '@date-fns/tz';
+import { format } from 'date-fns';
 
 const MINUS = '\u2212';
 
@@ -62,22 +64,12 @@ export function formatAge(ageS: number): string {
 
 /** "14:32:05" in the site's time zone. */
 export function formatClock(ms: number, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', second: '2-digit', hour12: false }).format(ms);
+  return format(new TZDate(ms, timeZone), 'HH:mm:ss');
 }
 
 /** "2026-12-01 08:00" in the site's time zone (ISO-like, unambiguous across locales). */
 export function formatDateTime(iso: string | number, timeZone: string): string {
-  const parts = new Intl.DateTimeFormat('en-CA', {
-    timeZone,
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    hour12: false,
-  }).formatToParts(typeof iso === 'number' ? iso : Date.parse(iso));
-  const get = (type: string) => parts.find((p) => p.type === type)?.value ?? '';
-  return `${get('year')}-${get('month')}-${get('day')} ${get('hour') === '24' ? '00' : get('hour')}:${get('minute')}`;
+  return format(new TZDate(typeof iso === 'number' ? iso : Date.parse(iso), timeZone), 'yyyy-MM-dd HH:mm');
 }
 
 export function formatDate(iso: string, timeZone: string): string {

@@ -16,9 +16,6 @@ export async function recordCalibrationDrift(sequelize: Sequelize, tankId: numbe
     { replacements: [tankId, diffMv, at, at] });
 }
 
-/** Same as recordCalibrationDrift, named after the brief's hook. */
-export const raiseCalibrationDrift = recordCalibrationDrift;
-
 export async function recordProbeCheck(sequelize: Sequelize, tankId: number, at = new Date()): Promise<void> {
   await sequelize.query(
     `INSERT INTO alarm_inputs (tank_id, last_probe_check_at, updated_at) VALUES (?, ?, ?)

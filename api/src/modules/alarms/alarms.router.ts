@@ -10,7 +10,7 @@ import { body, params, queryParams } from '../../middleware/validate.ts';
 import { alarmsService as svc } from './alarms.service.ts';
 import { definitionsRouter } from './definitions.router.ts';
 
-/** Who may acknowledge and shelve (domain.md 5 and the issue); everyone signed in sees and comments. */
+/** Who may acknowledge and shelve (supervisors own the alarm response); everyone signed in sees and comments. */
 export const ACK_ROLES: Role[] = ['supervisor', 'engineer', 'admin'];
 /** Out of service is a maintenance decision. */
 export const SERVICE_ROLES: Role[] = ['metallurgist', 'admin'];

@@ -16,7 +16,7 @@ export type AlarmInputProviders = {
   refreshMs?: number;
 };
 
-/** Weekly check against a standard solution is common practice (domain.md 7.5, from memory). */
+/** Weekly check against a standard solution is common practice. */
 export const DEFAULT_CHECK_INTERVAL_DAYS = 7;
 
 export function inputPuller(sequelize: Sequelize, providers: AlarmInputProviders | undefined) {

@@ -5,7 +5,7 @@ import {
 import { Tank } from '../../db/models.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { writeAudit } from '../audit.repository.ts';
-import { settingsRepository } from '../workbench/settings.repository.ts';
+import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { NO_MATCH, labRatioOf, matchAssays } from './assay-match.ts';
 import { assaysRepository as repo, type StoredAssay } from './assays.repository.ts';
 
@@ -31,13 +31,13 @@ export const assaysService = {
   async list(q: AssaysQuery): Promise<AssaysResponse> {
     const stored = await repo.list(q);
     const tankId = q.tankId ?? stored[0]?.tankId;
-    const windowMin = tankId ? (await settingsRepository.forTank(tankId)).assayMatchWindowMin : 10;
+    const windowMin = tankId ? (await siteSettingsRepository.forTank(tankId)).assayMatchWindowMin : 10;
     return { assays: await withMatches(stored, windowMin), windowMin };
   },
 
   /** Live assays of one tank in a period, each matched to the readings, for calibration fits. */
   async forTank(tankId: number, from: Date, to: Date): Promise<Assay[]> {
-    const { assayMatchWindowMin } = await settingsRepository.forTank(tankId);
+    const { assayMatchWindowMin } = await siteSettingsRepository.forTank(tankId);
     const stored = await repo.list({ tankId, from: from.toISOString(), to: to.toISOString(), liveOnly: true, limit: 2000 });
     return withMatches(stored, assayMatchWindowMin);
   },
@@ -64,7 +64,7 @@ export const assaysService = {
 
   async byIds(ids: number[]): Promise<Assay[]> {
     const stored = await repo.list({ ids, includeRetracted: true, limit: ids.length });
-    const windowMin = stored[0] ? (await settingsRepository.forTank(stored[0].tankId)).assayMatchWindowMin : 10;
+    const windowMin = stored[0] ? (await siteSettingsRepository.forTank(stored[0].tankId)).assayMatchWindowMin : 10;
     return withMatches(stored, windowMin);
   },
 

@@ -3,7 +3,7 @@ import {
 } from '../../../../shared/schemas/assays.ts';
 import { FUTURE_SKEW_MS } from '../../../../shared/schemas/workbench.ts';
 import type { DecodedCsv } from './csv-decode.ts';
-import { parseSamplingTime } from './site-time.ts';
+import { parseSamplingTime } from './sampling-time.ts';
 
 export type TankRef = { id: number; tag: string; timeZone: string };
 export type ValidRow = CsvPreviewRow & { tankId: number; sampledAtMs: number };

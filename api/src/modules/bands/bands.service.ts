@@ -11,7 +11,7 @@ import { logger } from '../../lib/logger.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { writeAudit } from '../audit.repository.ts';
 import { plantService } from '../plant/plant.service.ts';
-import { settingsRepository } from '../workbench/settings.repository.ts';
+import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { bandAsMv, sameBand } from './band-mv.ts';
 import { bandsRepository as repo } from './bands.repository.ts';
 
@@ -31,7 +31,7 @@ async function requestOne(
   const pending = await repo.pendingIdForTank(tankId, transaction);
   if (pending) throw AppError.conflict(`Tank ${tankId} has a band change awaiting approval (#${pending}): decide or withdraw it first`);
   if (sameBand(tank.band, next)) return null;
-  const { bandApprovalFactor } = await settingsRepository.forTank(tankId, transaction);
+  const { bandApprovalFactor } = await siteSettingsRepository.forTank(tankId, transaction);
   const needsApproval = isLargeBandChange(tank.band, next, bandApprovalFactor);
   const id = await repo.insert({ tankId, old: tank.band, next, reason, userId: actor.id, needsApproval, copiedFromTankId }, transaction);
   if (!needsApproval) await repo.setTankBand(tankId, next, transaction);
@@ -48,7 +48,7 @@ export const bandsService = {
     const tanks: BandRow[] = [];
     const approvalFactor: Record<number, number> = {};
     for (const s of sites) {
-      approvalFactor[s.id] = (await settingsRepository.forSite(s.id)).bandApprovalFactor;
+      approvalFactor[s.id] = (await siteSettingsRepository.forSite(s.id)).bandApprovalFactor;
       for (const c of s.circuits) {
         for (const t of c.tanks) {
           const { mv, note } = bandAsMv(t, t.band);

@@ -8,7 +8,7 @@ import type { Bus } from '../../realtime/bus.ts';
 import { assaysService } from '../assays/assays.service.ts';
 import { writeAudit } from '../audit.repository.ts';
 import { referenceLabel } from '../plant/reference-label.ts';
-import { settingsRepository } from '../workbench/settings.repository.ts';
+import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { fitFromAssays } from './calibration-fit.ts';
 import { calibrationRepository as repo } from './calibration.repository.ts';
 import { recomputeReadings } from './recompute.ts';
@@ -26,7 +26,7 @@ async function requireTank(tankId: number) {
 export const calibrationService = {
   async overview(tankId: number): Promise<CalibrationOverview> {
     const tank = await requireTank(tankId);
-    const [versions, probes, settings] = await Promise.all([repo.versions(tankId), repo.probes(tankId), settingsRepository.forTank(tankId)]);
+    const [versions, probes, settings] = await Promise.all([repo.versions(tankId), repo.probes(tankId), siteSettingsRepository.forTank(tankId)]);
     const p = probes.find((x) => x.active) ?? null;
     return {
       tankId, tankTag: tank.tag,
@@ -39,7 +39,7 @@ export const calibrationService = {
     await requireTank(tankId);
     const [assays, probes, versions, settings] = await Promise.all([
       assaysService.forTank(tankId, new Date(input.from), new Date(input.to)), repo.probes(tankId), repo.versions(tankId),
-      settingsRepository.forTank(tankId),
+      siteSettingsRepository.forTank(tankId),
     ]);
     const current = versions[0] ?? null;
     return fitFromAssays({

@@ -3,7 +3,7 @@ import { ackTimes } from '../../../../shared/digest/ack-times.ts';
 import type { AlarmFigures, AlarmSpan } from '../../../../shared/schemas/digest.ts';
 import { Site } from '../../db/models.ts';
 import { logger } from '../../lib/logger.ts';
-import { sqlTs } from '../shifts/shifts.repository.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 const EMPTY: AlarmFigures = {
   available: false, raised: 0, acknowledged: 0, shelved: 0, escalationsSent: 0, waiting: 0, ackMeanS: null, ackMaxS: null, timeline: [],
@@ -24,7 +24,7 @@ const iso = (d: Date | null) => (d ? new Date(d).toISOString() : null);
 export const alarmDigestRepository = {
   async figures(tables: Set<string>, siteId: number, fromMs: number, toMs: number): Promise<AlarmFigures> {
     if (!tables.has('alarm_instances') || !tables.has('alarm_events')) return EMPTY;
-    const r = { siteId, from: sqlTs(fromMs), to: sqlTs(toMs), limit: TIMELINE_MAX };
+    const r = { siteId, from: toSqlTs(fromMs), to: toSqlTs(toMs), limit: TIMELINE_MAX };
     try {
       const [raised, counts, timeline, escalations] = await Promise.all([
         select<{ at: Date; ackedAt: Date | null }>(

@@ -1,10 +1,10 @@
 import { QueryTypes } from 'sequelize';
 import type { EffectiveBandChange } from '../../../../shared/digest/band-spans.ts';
 import type { DigestEvent, Section } from '../../../../shared/schemas/digest.ts';
-import { wallTimeOf } from '../../../../shared/shifts/time-zone.ts';
+import { wallTimeOf } from '../../../../shared/time/site-time.ts';
 import { Site } from '../../db/models.ts';
 import { logger } from '../../lib/logger.ts';
-import { sqlTs } from '../shifts/shifts.repository.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 type Range = { siteId: number; from: string; to: string; timeZone: string };
 type EventRow = { at: Date; tankId: number | null; tankTag: string | null; by: string | null } & Record<string, unknown>;
@@ -42,7 +42,7 @@ async function section(tables: Set<string>, needs: string[], name: string, sql: 
 const SITE_TANKS = 'SELECT t2.id FROM tanks t2 JOIN circuits c2 ON c2.id = t2.circuit_id WHERE c2.site_id = :siteId';
 
 export const digestEventsRepository = {
-  range: (siteId: number, timeZone: string, fromMs: number, toMs: number): Range => ({ siteId, timeZone, from: sqlTs(fromMs), to: sqlTs(toMs) }),
+  range: (siteId: number, timeZone: string, fromMs: number, toMs: number): Range => ({ siteId, timeZone, from: toSqlTs(fromMs), to: toSqlTs(toMs) }),
 
   calibrations: (tables: Set<string>, r: Range) => section(tables, ['calibrations'], 'calibrations',
     `SELECT c.created_at AS at, c.tank_id AS tankId, t.tag AS tankTag, u.name AS \`by\`, c.version, c.formal_potential_v AS e0, c.valid_from AS validFrom, c.reason

@@ -1,7 +1,7 @@
 import type { MinutePoint } from '../../../../shared/digest/time-in-band.ts';
 import { Site } from '../../db/models.ts';
 import { rawPool } from '../../db/database.ts';
-import { sqlTs } from '../shifts/shifts.repository.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 export type DigestTank = { id: number; tag: string; name: string; circuitTag: string; band: { low: number; high: number } };
 
@@ -45,7 +45,7 @@ export const rollupDigestRepository = {
                SELECT ${cols} FROM rollups_1m WHERE probe_id IN (SELECT id FROM probes WHERE tank_id IN (?))
                   AND ((bucket >= ? AND bucket < ?) OR (bucket >= ? AND bucket < ?))) r
          JOIN probes p ON p.id = r.probe_id GROUP BY p.tank_id`,
-      [tankIds, sqlTs(hFrom), sqlTs(hTo), tankIds, sqlTs(fromMs), sqlTs(Math.min(hFrom, toMs)), sqlTs(Math.max(hTo, fromMs)), sqlTs(toMs)]);
+      [tankIds, toSqlTs(hFrom), toSqlTs(hTo), tankIds, toSqlTs(fromMs), toSqlTs(Math.min(hFrom, toMs)), toSqlTs(Math.max(hTo, fromMs)), toSqlTs(toMs)]);
   },
 
   /**
@@ -68,7 +68,7 @@ export const rollupDigestRepository = {
                WHERE probe_id IN (${ids.map(() => '?').join(', ')}) AND bucket >= ? AND bucket < ? ORDER BY probe_id, bucket`,
         rowsAsArray: true,
       },
-      [sqlTs(base), ...ids, sqlTs(fromMs), sqlTs(toMs)]);
+      [toSqlTs(base), ...ids, toSqlTs(fromMs), toSqlTs(toMs)]);
     for (const [probeId, minute, logRatio] of rows) out.get(tankOf.get(probeId)!)?.push({ tMs: base + Number(minute) * 60_000, logRatio });
     // Series of a tank's successive probes arrive one after the other: put them back in time order.
     if (probes.length > tankIds.length) for (const list of out.values()) list.sort((a, b) => a.tMs - b.tMs);

@@ -3,7 +3,7 @@ import { mkdir, readdir, readFile, rename, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 
 /**
- * Mail caught by the local SMTP catcher: one JSON file per message in DATA_DIR/mail/, named
+ * Mail caught by the local SMTP catcher: one JSON file per message in FERRISIGHT_DATA_DIR/mail/, named
  * so that a plain sort is arrival order. Written by simulators/mail-catcher.ts, read by the
  * admin route (the API and the catcher are separate processes; the folder is their contract).
  */

@@ -4,7 +4,7 @@ import { logger } from '../../lib/logger.ts';
 import { outboxRepository as repo } from './outbox.repository.ts';
 
 /**
- * Sends queued mail. nodemailer neither retries nor persists (reliability.md 5), so the outbox
+ * Sends queued mail. nodemailer neither retries nor persists (nodemailer#1425, #1446), so the outbox
  * row is the message: a failure leaves it pending with a later next_attempt_at, and a worker
  * that dies mid-send leaves a claim that expires, so the message is retried, never lost.
  * A crash between the relay's "250 OK" and the status update can repeat one message; the

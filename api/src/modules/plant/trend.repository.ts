@@ -1,5 +1,6 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { TrendResponse } from '../../../../shared/schemas/plant.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 export type TrendSource = 'raw' | '1m' | '1h';
 
@@ -14,8 +15,6 @@ export function planTrend(spanS: number, maxPoints: number, intervalS: number): 
   return { source: 'raw', bucketS: spanS / intervalS <= maxPoints ? 0 : bucketS };
 }
 
-const fmt = (d: Date) => d.toISOString().replace('T', ' ').replace('Z', '');
-
 type Row = { t: number; lr: number; lrmin: number; lrmax: number; orp: number; temp: number };
 
 /** Trend columns for one probe, at most maxPoints rows. */
@@ -24,7 +23,7 @@ export async function queryTrend(
 ): Promise<Omit<TrendResponse, 'tankId'>> {
   const spanS = (to.getTime() - from.getTime()) / 1000;
   const { source, bucketS } = planTrend(spanS, maxPoints, intervalS);
-  const replacements = { probeId, from: fmt(from), to: fmt(to), b: bucketS };
+  const replacements = { probeId, from: toSqlTs(from.getTime()), to: toSqlTs(to.getTime()), b: bucketS };
   let sql: string;
   if (source === 'raw' && bucketS === 0) {
     sql = `SELECT UNIX_TIMESTAMP(ts) AS t, LOG10(ratio) AS lr, LOG10(ratio) AS lrmin, LOG10(ratio) AS lrmax, orp_mv AS orp, temp_c AS temp

@@ -6,7 +6,7 @@ import { FUTURE_SKEW_MS } from '../../../../shared/schemas/workbench.ts';
 import { Probe } from '../../db/models.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { writeAudit } from '../audit.repository.ts';
-import { settingsRepository } from '../workbench/settings.repository.ts';
+import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { probeChecksRepository as repo, type ProbeFacts } from './probe-checks.repository.ts';
 
 const DAY_MS = 86_400_000;
@@ -66,7 +66,7 @@ export const probeChecksService = {
     const defaults = new Map<number, number>();
     const out: ProbeDue[] = [];
     for (const p of probes) {
-      if (!defaults.has(p.tankId)) defaults.set(p.tankId, (await settingsRepository.forTank(p.tankId)).probeCheckIntervalDays);
+      if (!defaults.has(p.tankId)) defaults.set(p.tankId, (await siteSettingsRepository.forTank(p.tankId)).probeCheckIntervalDays);
       const intervalDays = schedules.get(p.id) ?? defaults.get(p.tankId)!;
       const h = history.get(p.id) ?? {};
       const due = dueOf(p, intervalDays, h);

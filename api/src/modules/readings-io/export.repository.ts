@@ -3,7 +3,7 @@ import type { ExportSource } from '../../../../shared/schemas/export.ts';
 import { Site } from '../../db/models.ts';
 import { rawPool } from '../../db/database.ts';
 import type { PoolConnection } from '../../db/pool.ts';
-import { sqlTs } from '../shifts/shifts.repository.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 export type ExportProbe = { probeId: number; probeTag: string; tankId: number; tankTag: string };
 
@@ -37,7 +37,7 @@ export const exportRepository = {
   /** A dedicated connection and a row stream on it; the caller releases (or destroys, on abort) the connection. */
   async open(source: ExportSource, probeIds: number[], fromMs: number, toMs: number): Promise<{ conn: PoolConnection; rows: Readable }> {
     const conn = await pool().getConnection();
-    const rows = conn.queryStream({ sql: SQL[source], rowsAsArray: true }, [probeIds, sqlTs(fromMs), sqlTs(toMs)]);
+    const rows = conn.queryStream({ sql: SQL[source], rowsAsArray: true }, [probeIds, toSqlTs(fromMs), toSqlTs(toMs)]);
     return { conn, rows };
   },
 };

@@ -1,5 +1,5 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import type { EscalationStepView, OnCallRole, ShiftInput, ShiftView } from '../../../../shared/schemas/roster.ts';
+import type { EscalationStepView, OnCallRole, ShiftInput, OnCallShiftView } from '../../../../shared/schemas/roster.ts';
 import { Site } from '../../db/models.ts';
 
 /** Roster shifts and escalation steps; raw SQL so the notifier process can use it without models. */
@@ -8,7 +8,7 @@ type ShiftRow = { id: number; person_name: string; email: string; role_on_call: 
 const SHIFT_SELECT = `SELECT r.id, r.person_name, r.email, r.role_on_call, r.starts_at, r.ends_at, r.note, u.id AS user_id
   FROM roster_shifts r LEFT JOIN users u ON u.email = r.email AND u.disabled = 0`;
 
-const toShift = (r: ShiftRow): ShiftView => ({
+const toShift = (r: ShiftRow): OnCallShiftView => ({
   id: r.id, personName: r.person_name, email: r.email, roleOnCall: r.role_on_call, startsAt: new Date(r.starts_at).toISOString(),
   endsAt: new Date(r.ends_at).toISOString(), note: r.note, userId: r.user_id,
 });
@@ -17,7 +17,7 @@ export const rosterRepository = {
   db: (): Sequelize => Site.sequelize!,
 
   /** Shifts overlapping [from, to), in time order. */
-  async shifts(sequelize: Sequelize, from: Date, to: Date): Promise<ShiftView[]> {
+  async shifts(sequelize: Sequelize, from: Date, to: Date): Promise<OnCallShiftView[]> {
     const rows = await sequelize.query<ShiftRow>(`${SHIFT_SELECT} WHERE r.starts_at < :to AND r.ends_at > :from ORDER BY r.starts_at, r.role_on_call, r.id`,
       { replacements: { from, to }, type: QueryTypes.SELECT });
     return rows.map(toShift);
@@ -26,7 +26,7 @@ export const rosterRepository = {
   /** Who is on call at this instant. */
   onCall: (sequelize: Sequelize, at: Date) => rosterRepository.shifts(sequelize, at, new Date(at.getTime() + 1)),
 
-  async get(sequelize: Sequelize, id: number, transaction?: Transaction): Promise<ShiftView | null> {
+  async get(sequelize: Sequelize, id: number, transaction?: Transaction): Promise<OnCallShiftView | null> {
     const [row] = await sequelize.query<ShiftRow>(`${SHIFT_SELECT} WHERE r.id = :id`, { replacements: { id }, type: QueryTypes.SELECT, transaction });
     return row ? toShift(row) : null;
   },

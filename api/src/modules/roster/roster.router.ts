@@ -6,7 +6,7 @@ import { requireRole, requireSignIn } from '../../middleware/auth.ts';
 import { body, params, queryParams } from '../../middleware/validate.ts';
 import { rosterService as svc } from './roster.service.ts';
 
-/** Supervisors and admins manage the roster (domain.md 5); everyone sees who is on call. */
+/** Supervisors and admins manage the roster; everyone sees who is on call. */
 export const ROSTER_ROLES: Role[] = ['supervisor', 'admin'];
 const DAY = 86_400_000;
 

@@ -1,7 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { ShiftLogEntryView } from '../../../../shared/schemas/shifts.ts';
 import { Site } from '../../db/models.ts';
-import { sqlTs } from './shifts.repository.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 type EntryRow = {
   id: number; shiftId: number; at: Date; authorId: number; authorName: string; authorRole: string; body: string;
@@ -36,7 +36,7 @@ export const shiftLogRepository = {
   async between(siteId: number, fromMs: number, toMs: number): Promise<ShiftLogEntryView[]> {
     const rows = await db().query<EntryRow>(
       `${ENTRY_SELECT} JOIN shifts s ON s.id = e.shift_id WHERE s.site_id = :siteId AND e.at >= :from AND e.at < :to ORDER BY e.at, e.id`,
-      { replacements: { siteId, from: sqlTs(fromMs), to: sqlTs(toMs) }, type: QueryTypes.SELECT });
+      { replacements: { siteId, from: toSqlTs(fromMs), to: toSqlTs(toMs) }, type: QueryTypes.SELECT });
     return rows.map(toView);
   },
 

@@ -1,6 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { z } from 'zod';
 import { Site } from '../../db/models.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 import { SiteSetting } from '../../db/workbench-models.ts';
 import { logger } from '../../lib/logger.ts';
 
@@ -10,9 +11,6 @@ export type ShiftRow = {
   id: number; siteId: number; startsAt: Date; endsAt: Date; closedAt: Date | null;
   closedById: number | null; closedByName: string | null; handoverNote: string | null;
 };
-
-/** DATETIME(3) text in UTC: the only form times are sent to MariaDB in. */
-export const sqlTs = (ms: number) => new Date(ms).toISOString().slice(0, 23).replace('T', ' ');
 
 const PATTERN_KEY = 'shiftPattern';
 const storedPatternSchema = z.object({
@@ -52,14 +50,14 @@ export const shiftsRepository = {
     return select<ShiftRow>(
       `SELECT ${SHIFT_COLUMNS} FROM shifts s LEFT JOIN users u ON u.id = s.closed_by
         WHERE s.site_id = :siteId AND s.starts_at < :to AND s.ends_at > :from ORDER BY s.starts_at`,
-      { siteId, from: sqlTs(fromMs), to: sqlTs(toMs) });
+      { siteId, from: toSqlTs(fromMs), to: toSqlTs(toMs) });
   },
 
   async byStart(siteId: number, startsAtMs: number, transaction?: Transaction): Promise<ShiftRow | null> {
     const rows = await select<ShiftRow>(
       `SELECT ${SHIFT_COLUMNS} FROM shifts s LEFT JOIN users u ON u.id = s.closed_by
         WHERE s.site_id = :siteId AND s.starts_at = :start ${transaction ? 'FOR UPDATE' : ''}`,
-      { siteId, start: sqlTs(startsAtMs) }, transaction);
+      { siteId, start: toSqlTs(startsAtMs) }, transaction);
     return rows[0] ?? null;
   },
 
@@ -79,7 +77,7 @@ export const shiftsRepository = {
     await db().query(
       `INSERT INTO shifts (site_id, starts_at, ends_at, created_at) VALUES (:siteId, :start, :end, UTC_TIMESTAMP(3))
        ON DUPLICATE KEY UPDATE id = id`,
-      { replacements: { siteId, start: sqlTs(startsAtMs), end: sqlTs(endsAtMs) }, transaction });
+      { replacements: { siteId, start: toSqlTs(startsAtMs), end: toSqlTs(endsAtMs) }, transaction });
     return (await shiftsRepository.byStart(siteId, startsAtMs, transaction))!;
   },
 

@@ -3,7 +3,7 @@ import { ALARM_KINDS, KIND_INFO } from '@shared/alarms/kinds';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { useNow } from '../../../lib/clock';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import type { HistoryParams } from '../api/alarm-keys';
 import { alarmHistoryCsvUrl, HISTORY_PAGE, useAlarmHistory } from '../api/get-alarm-history';
 import { AlarmTable } from './alarm-table';

@@ -2,7 +2,7 @@ import type { AlarmState } from '@shared/alarms/states';
 import { formatClock } from '../../../lib/format';
 import { STATE_LABEL } from './alarm-states';
 
-/** Small clock drawn in currentColor: shelved alarms show it with their expiry (design.md). */
+/** Small clock drawn in currentColor: shelved alarms show it with their expiry. */
 function ClockIcon() {
   return (
     <svg viewBox="0 0 16 16" width="14" height="14" aria-hidden="true" className="shrink-0">

@@ -15,7 +15,7 @@ export const STATE_LABEL: Record<AlarmState, string> = {
 export const isAnnunciated = (s: AlarmState) => ANNUNCIATED.includes(s);
 export const isUnacknowledged = (s: AlarmState) => UNACKNOWLEDGED.includes(s);
 
-/** A measured value in its kind's unit, with the display rules of design.md. */
+/** A measured value in its kind's unit, with the house display rules (see lib/format.ts). */
 export function formatAlarmValue(kind: AlarmView['kind'], v: number | null): string {
   if (v === null) return '—';
   if (kind === 'ratio-below-band' || kind === 'ratio-above-band') return formatRatio(v);

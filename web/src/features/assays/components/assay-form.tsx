@@ -5,7 +5,7 @@ import { FormError, SelectField, TextField } from '../../../components/ui/field'
 import { Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { formMessage, issuesToFieldErrors, serverFieldErrors, type FieldErrors } from '../../../lib/form';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { useCreateAssay } from '../api/create-assay';
 import { tankOptions, type TankOption } from './tank-option';
 

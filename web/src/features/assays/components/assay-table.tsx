@@ -5,7 +5,7 @@ import { FormError, TextField } from '../../../components/ui/field';
 import { Quantity } from '../../../components/ui/quantity';
 import { formatMv, formatRatio, formatTempC } from '../../../lib/format';
 import { formMessage } from '../../../lib/form';
-import { isoToSiteLocal } from '../../../lib/site-time';
+import { isoToSiteLocal } from '@shared/time/site-time';
 import { useRetractAssay } from '../api/retract-assay';
 
 const g = (v: number) => Number(v.toPrecision(4)).toString();

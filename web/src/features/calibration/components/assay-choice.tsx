@@ -1,6 +1,6 @@
 import type { Assay } from '@shared/schemas/assays';
 import { formatMv, formatRatio } from '../../../lib/format';
-import { isoToSiteLocal } from '../../../lib/site-time';
+import { isoToSiteLocal } from '@shared/time/site-time';
 
 export type Exclusions = Record<number, string>;
 

@@ -1,6 +1,6 @@
 import type { ProbeDue } from '@shared/schemas/probe-checks';
 import { formatFixed } from '../../../lib/format';
-import { isoToSiteLocal } from '../../../lib/site-time';
+import { isoToSiteLocal } from '@shared/time/site-time';
 
 const BASIS: Record<ProbeDue['basis'], string> = {
   'last-pass': 'interval since the last pass',

@@ -5,7 +5,7 @@ import { FormError, TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { Loading } from '../../../components/ui/page-state';
 import { formMessage, issuesToFieldErrors, type FieldErrors } from '../../../lib/form';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { useFitCalibration } from '../api/fit-calibration';
 import { useTankAssays } from '../api/get-tank-assays';
 import { ApplyForm } from './apply-form';

@@ -1,6 +1,6 @@
 import type { FitPoint } from '@shared/schemas/calibration';
 import { formatFixed, formatRatio, formatTempC } from '../../../lib/format';
-import { isoToSiteLocal } from '../../../lib/site-time';
+import { isoToSiteLocal } from '@shared/time/site-time';
 
 /** The fitted assays one by one: the same numbers as the chart, readable without it. */
 export function FitPointsTable({ points, timeZone }: { points: FitPoint[]; timeZone: string }) {

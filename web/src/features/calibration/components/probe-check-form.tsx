@@ -6,7 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { FormError, SelectField, TextField } from '../../../components/ui/field';
 import { formatFixed, formatMv } from '../../../lib/format';
 import { formMessage, issuesToFieldErrors, serverFieldErrors, type FieldErrors } from '../../../lib/form';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { useRecordProbeCheck } from '../api/record-probe-check';
 
 type Probe = NonNullable<CalibrationOverview['probe']>;

@@ -4,7 +4,7 @@ import { STANDARD_LABELS } from '@shared/schemas/probe-checks';
 import { Button } from '../../../components/ui/button';
 import { Panel } from '../../../components/ui/panel';
 import { formatFixed, formatMv, formatTempC } from '../../../lib/format';
-import { isoToSiteLocal } from '../../../lib/site-time';
+import { isoToSiteLocal } from '@shared/time/site-time';
 import { useCheckSchedule } from '../api/get-check-schedule';
 import { useProbeChecks } from '../api/get-probe-checks';
 import { useProbeReplacements } from '../api/get-probe-replacements';

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { FormError, TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { formMessage, issuesToFieldErrors, type FieldErrors } from '../../../lib/form';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { useRecomputeReadings } from '../api/recompute-readings';
 
 type Props = { tankId: number; version: number; from: string; to: string; timeZone: string };

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { CautionNote } from '../../../components/ui/caution-note';
 import { FormError, SelectField, TextField } from '../../../components/ui/field';
 import { formMessage, issuesToFieldErrors, serverFieldErrors, type FieldErrors } from '../../../lib/form';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { useRecordProbeReplacement } from '../api/record-probe-replacement';
 
 export const PROBE_WORK_CAUTION =

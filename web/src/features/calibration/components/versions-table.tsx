@@ -1,6 +1,6 @@
 import type { CalibrationVersion } from '@shared/schemas/calibration';
 import { formatFixed } from '../../../lib/format';
-import { isoToSiteLocal } from '../../../lib/site-time';
+import { isoToSiteLocal } from '@shared/time/site-time';
 
 /** Every calibration version of the tank, newest (in force) first. */
 export function VersionsTable({ versions, timeZone }: { versions: CalibrationVersion[]; timeZone: string }) {

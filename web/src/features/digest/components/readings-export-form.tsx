@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import type { ExportSource } from '@shared/schemas/export';
-import { addDays, localDateOf, zonedTimeToUtc } from '@shared/shifts/time-zone';
+import { addDays, localDateOf, zonedTimeToUtc } from '@shared/time/site-time';
 import { Panel } from '../../../components/ui/panel';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { serverNow } from '../../../lib/clock';

@@ -1,10 +1,10 @@
 import { useState } from 'react';
-import { addDays, localDateOf, zonedTimeToUtc } from '@shared/shifts/time-zone';
+import { addDays, localDateOf, zonedTimeToUtc } from '@shared/time/site-time';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { serverNow } from '../../../lib/clock';
 import { formatDateTime } from '../../../lib/format';
-import { useShifts } from '../api/get-shifts';
+import { useRecentShifts } from '../api/get-recent-shifts';
 import type { DigestParams } from '../api/get-digest';
 
 type Props = { timeZone: string; value: DigestParams; onChange: (p: DigestParams) => void };
@@ -13,7 +13,7 @@ const STATUS = { open: 'open', closed: 'handed over', upcoming: 'not started' } 
 
 /** A shift from the recent list, or whole site-time days (midnight to midnight). */
 export function ShiftPicker({ timeZone, value, onChange }: Props) {
-  const shifts = useShifts();
+  const shifts = useRecentShifts();
   const today = localDateOf(serverNow(), timeZone);
   const [fromDay, setFromDay] = useState(value.from ? localDateOf(Date.parse(value.from), timeZone) : addDays(today, -7));
   const [toDay, setToDay] = useState(value.to ? localDateOf(Date.parse(value.to) - 1, timeZone) : addDays(today, -1));

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import type { Role } from '@shared/schemas/auth';
 import { Panel } from '../../../components/ui/panel';
 import { useNow } from '../../../lib/clock';
-import { useShifts } from '../api/get-shifts';
+import { useOnCallShifts } from '../api/get-on-call-shifts';
 import { OnCallNow } from './on-call-now';
 import { PolicyView } from './policy-view';
 import { ShiftForm } from './shift-form';
@@ -16,7 +16,7 @@ export function CallRoster({ role, timeZone }: { role: Role; timeZone: string })
   const now = useNow();
   const hour = Math.floor(now / 3_600_000) * 3_600_000;
   const range = useMemo(() => ({ from: new Date(hour - DAY).toISOString(), to: new Date(hour + 14 * DAY).toISOString() }), [hour]);
-  const shifts = useShifts(range.from, range.to);
+  const shifts = useOnCallShifts(range.from, range.to);
   const canManage = MANAGERS.includes(role);
   return (
     <div className="mx-auto flex max-w-7xl flex-col gap-4">

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { FormError, SelectField, TextField } from '../../../components/ui/field';
 import { useNow } from '../../../lib/clock';
 import { formMessage, issuesToFieldErrors, serverFieldErrors, type FieldErrors } from '../../../lib/form';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { useCreateShift } from '../api/create-shift';
 
 /** Add one shift; times are entered in site time. */

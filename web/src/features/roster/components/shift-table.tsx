@@ -1,11 +1,11 @@
 import { useState } from 'react';
-import { ON_CALL_LABEL, type ShiftView } from '@shared/schemas/roster';
+import { ON_CALL_LABEL, type OnCallShiftView } from '@shared/schemas/roster';
 import { Button } from '../../../components/ui/button';
 import { formatDateTime } from '../../../lib/format';
 import { useRemoveShift } from '../api/remove-shift';
 
 /** Shifts in time order; the ones running now are marked; managers may remove one with a reason. */
-export function ShiftTable({ shifts, timeZone, canManage, now }: { shifts: ShiftView[]; timeZone: string; canManage: boolean; now: number }) {
+export function ShiftTable({ shifts, timeZone, canManage, now }: { shifts: OnCallShiftView[]; timeZone: string; canManage: boolean; now: number }) {
   const remove = useRemoveShift();
   const [removing, setRemoving] = useState<number | null>(null);
   const [reason, setReason] = useState('');

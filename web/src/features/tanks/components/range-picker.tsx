@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { serverNow } from '../../../lib/clock';
-import { isoToSiteLocal, siteLocalToIso } from '../../../lib/site-time';
+import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { PRESETS, type Preset, type TrendRange } from '../api/get-trend';
 
 const LABELS: Record<Preset, string> = { '1h': '1 h', '8h': '8 h', '24h': '24 h', '7d': '7 d', '30d': '30 d' };

@@ -2,18 +2,10 @@
  * Lab exports write sampling times as the clock on the lab wall ("2026-12-01 08:30"), not as
  * UTC. Such bare times are read in the site's time zone; times with Z or an offset are exact.
  */
+import { wallToUtc } from '../../../../shared/time/site-time.ts';
+
 const BARE = /^(\d{4})-(\d{2})-(\d{2})[ T](\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,3}))?)?$/;
 const WITH_ZONE = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(?::\d{2}(?:\.\d{1,9})?)?(?:Z|[+-]\d{2}:?\d{2})$/i;
-
-/** Offset of the zone from UTC at an instant, ms (positive east of Greenwich). */
-function zoneOffsetMs(instantMs: number, timeZone: string): number {
-  const parts = new Intl.DateTimeFormat('en-US', {
-    timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
-  }).formatToParts(instantMs);
-  const get = (t: string) => Number(parts.find((p) => p.type === t)?.value);
-  const wall = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
-  return wall - Math.floor(instantMs / 1000) * 1000;
-}
 
 /**
  * Parses a sampling time to epoch ms, or returns a message saying what is wrong.
@@ -32,8 +24,5 @@ export function parseSamplingTime(text: string, timeZone: string): number | stri
   const wall = Date.UTC(y, mo - 1, d, h, mi, s, ms);
   const back = new Date(wall);
   if (back.getUTCMonth() !== mo - 1 || back.getUTCDate() !== d || h > 23 || mi > 59 || s > 59) return 'not a real date and time';
-  // Two passes settle the offset across a daylight-saving change.
-  let utc = wall - zoneOffsetMs(wall, timeZone);
-  utc = wall - zoneOffsetMs(utc, timeZone);
-  return utc;
+  return wallToUtc(wall, timeZone);
 }

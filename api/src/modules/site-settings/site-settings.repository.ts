@@ -22,7 +22,7 @@ function merge(rows: SiteSetting[]): SiteSettings {
   return out;
 }
 
-export const settingsRepository = {
+export const siteSettingsRepository = {
   /** Pass the caller's transaction when inside one: a second pool connection per request deadlocks under load. */
   async forSite(siteId: number, transaction?: Transaction): Promise<SiteSettings> {
     return merge(await SiteSetting.findAll({ where: { siteId }, transaction }));
