@@ -14,7 +14,7 @@ import {
   TEMP_COEFF_LIMIT_V_PER_K,
 } from './constants';
 import { requireInRange, requirePositive, requirePositiveInteger, requireTempC } from './guards';
-import { referencePotentialV, type ReferenceElectrode } from './reference-electrodes';
+import { referencePotentialV, referenceStatus, type ReferenceElectrode } from './reference-electrodes';
 
 /**
  * Nernst slope R·T/(n·F).
@@ -58,7 +58,25 @@ export type RedoxConditions = {
   formalPotentialV: number;
   /** Temperature coefficient of E°′, V/K; defaults to 0. */
   formalCoeffVPerK?: number;
+  /** Accepted slope efficiency of the probe (1 = the full Nernst slope R·T/F); defaults to 1. */
+  slopeEfficiency?: number;
 };
+
+/**
+ * Quality of a converted reading, worst first: 'outside-range' (|log10 ratio| > 4),
+ * 'reference-unusable' (reference electrode above its usable temperature, e.g. calomel above
+ * about 70 °C), 'reference-extrapolated' (outside the temperatures its source covers), 'ok'.
+ */
+export const READING_FLAGS = ['ok', 'outside-range', 'reference-extrapolated', 'reference-unusable'] as const;
+export type ReadingFlag = (typeof READING_FLAGS)[number];
+
+/** Widest accepted slope efficiency: beyond ±50 % the probe is broken, not sluggish. */
+export const SLOPE_EFFICIENCY_LIMITS = { min: 0.5, max: 1.5 } as const;
+
+function slopeOf(input: RedoxConditions): number {
+  return input.slopeEfficiency === undefined ? 1
+    : requireInRange('slopeEfficiency', input.slopeEfficiency, SLOPE_EFFICIENCY_LIMITS.min, SLOPE_EFFICIENCY_LIMITS.max);
+}
 
 export type OrpToRatioResult = {
   /** Potential vs SHE, V. */
@@ -67,27 +85,30 @@ export type OrpToRatioResult = {
   ratio: number;
   /** Fe³⁺/(Fe³⁺ + Fe²⁺), 0…1. */
   ferricFraction: number;
-  flag: 'ok' | 'outside-range';
+  flag: ReadingFlag;
 };
 
 /**
  * Converts a probe reading into the Fe³⁺/Fe²⁺ ratio.
  * @param input.orpMv probe reading vs its reference electrode, mV
  * @param input.tempC solution temperature, °C
- * @returns ehV (V vs SHE), ratio, ferric fraction, and flag 'outside-range' when
- *   |log10 ratio| > 4 (the ratio is then clamped to stay finite and > 0)
+ * @returns ehV (V vs SHE), ratio, ferric fraction, and a flag (see ReadingFlag): 'outside-range'
+ *   when |log10 ratio| > 4 (the ratio is then clamped to stay finite and > 0), else the
+ *   reference electrode's status at tempC
  */
 export function orpToRatio(input: RedoxConditions & { orpMv: number }): OrpToRatioResult {
   const orpMv = requireInRange('orpMv', input.orpMv, -ORP_LIMIT_MV, ORP_LIMIT_MV, 'mV');
   const ehV = orpMv / 1000 + referencePotentialV(input.reference, input.tempC);
   const e0V = formalPotentialAtV(input.formalPotentialV, input.tempC, input.formalCoeffVPerK ?? 0);
-  const lnRatio = (ehV - e0V) / nernstSlopeV(input.tempC);
+  const lnRatio = (ehV - e0V) / (slopeOf(input) * nernstSlopeV(input.tempC));
   // Clamp rather than throw: an extreme reading is real data (fouled or dry probe)
   // that the floor must still display, flagged, without Infinity or 0 leaking out.
   const clamped = Math.max(-MAX_ABS_LN_RATIO, Math.min(MAX_ABS_LN_RATIO, lnRatio));
   const ratio = Math.exp(clamped);
   const outside = Math.abs(lnRatio) > MAX_ABS_LOG10_RATIO * Math.LN10;
-  return { ehV, ratio, ferricFraction: ferricFractionOf(ratio), flag: outside ? 'outside-range' : 'ok' };
+  const refStatus = referenceStatus(input.reference, input.tempC);
+  const flag: ReadingFlag = outside ? 'outside-range' : refStatus === 'ok' ? 'ok' : `reference-${refStatus}`;
+  return { ehV, ratio, ferricFraction: ferricFractionOf(ratio), flag };
 }
 
 /**
@@ -99,7 +120,7 @@ export function orpToRatio(input: RedoxConditions & { orpMv: number }): OrpToRat
 export function ratioToOrpMv(input: RedoxConditions & { ratio: number }): number {
   const ratio = requirePositive('ratio', input.ratio);
   const e0V = formalPotentialAtV(input.formalPotentialV, input.tempC, input.formalCoeffVPerK ?? 0);
-  const ehV = e0V + nernstSlopeV(input.tempC) * Math.log(ratio);
+  const ehV = e0V + slopeOf(input) * nernstSlopeV(input.tempC) * Math.log(ratio);
   return (ehV - referencePotentialV(input.reference, input.tempC)) * 1000;
 }
 

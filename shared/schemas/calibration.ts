@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { SLOPE_EFFICIENCY_LIMITS } from '../redox/index.ts';
 import { instantSchema, reasonSchema } from './workbench.ts';
 
 /** Slope efficiency outside this range earns a warning (probe fouled, sluggish, or a mixed potential). */
@@ -14,6 +15,8 @@ const windowShape = {
     .array(z.object({ assayId: z.number().int().positive(), reason: reasonSchema }))
     .max(1000)
     .default([]),
+  /** Slope efficiency to fit with and store (the fitted one, once accepted); 1 when not given. */
+  slopeEfficiency: z.number().min(SLOPE_EFFICIENCY_LIMITS.min).max(SLOPE_EFFICIENCY_LIMITS.max).default(1),
 };
 const windowOrder = (v: { from: string; to: string }) => Date.parse(v.from) < Date.parse(v.to);
 
@@ -48,12 +51,24 @@ export type FitPoint = {
   residualMv: number;
   /** Measured minus the reading the calibration in force predicts, mV (null without one). */
   currentResidualMv: number | null;
+  /** Externally studentized residual (null with fewer than 5 assays). */
+  studentizedResidual: number | null;
+  /** |studentized residual| > 3: a likely gross assay or matching error. */
+  suspect: boolean;
+  /** (R·T/F)·ln(lab ratio), V: the x of the E_SHE plot. */
+  nernstTermV: number;
+  /** Probe reading vs SHE, V. */
+  eSheV: number;
+  /** E°′ this assay alone gives at its own temperature, V. */
+  pointFormalPotentialV: number;
 };
 
 export type CalibrationVersion = {
   version: number;
   formalPotentialV: number;
   formalCoeffVPerK: number;
+  /** Accepted slope efficiency the conversion uses (1 = the full Nernst slope). */
+  slopeEfficiency: number;
   validFrom: string;
   reason: string;
   createdBy: { id: number; name: string } | null;
@@ -64,7 +79,10 @@ export type FitResult = {
   tankId: number;
   formalPotentialV: number;
   formalCoeffVPerK: number;
+  /** Slope efficiency this fit assumed (and an apply stores). */
+  usedSlopeEfficiency: number;
   fittedTempCoeff: boolean;
+  tempCoeffBasis: 'fitted' | 'held' | 'held-narrow-span' | 'held-too-few-assays' | 'default-zero';
   /** Why k was or was not fitted, in words. */
   tempCoeffNote: string;
   tempSpanC: number;
@@ -73,6 +91,12 @@ export type FitResult = {
   rmsMv: number;
   slopeEfficiency: number | null;
   slopeWarning: string | null;
+  /** OLS standard errors, V and V/K (k's is null when k was held). */
+  standardErrors: { formalPotentialV: number; formalCoeffVPerK: number | null };
+  /** E°′ at the assays' mean temperature with its standard error, V. */
+  atMeanTemp: { tempC: number; formalPotentialV: number; standardErrorV: number };
+  /** The joint fit behind the slope efficiency (null unless the lab ratios span a decade). */
+  slopeFit: { slopeEfficiency: number; standardError: number; formalPotentialV: number; formalCoeffVPerK: number; jointTempCoeff: boolean } | null;
   points: FitPoint[];
   /** Assays in the window that could not be used, with the reason. */
   skipped: Array<{ assayId: number; sampledAt: string; reason: string }>;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { OXIDANTS, type OxidantId } from '../redox/index.ts';
+import { OXIDANTS, type OxidantId, type ReadingFlag } from '../redox/index.ts';
 
 /** What the Dose advisor needs from the plant; the arithmetic itself runs in the browser with shared/redox. */
 export type DoseInputs = {
@@ -9,7 +9,7 @@ export type DoseInputs = {
   band: { low: number; high: number; target: number | null };
   /** Geometric mean of low and high: the middle of the band on the log scale it is drawn on. */
   bandMiddle: number;
-  latest: { ratio: number; ts: string; tempC: number; flag: 'ok' | 'outside-range' } | null;
+  latest: { ratio: number; ts: string; tempC: number; flag: ReadingFlag } | null;
   latestAssay: { id: number; sampledAt: string; feTotalGPerL: number } | null;
   /** Ratio ×/÷ this factor is the probe tolerance expressed on the ratio (null when unknown). */
   uncertaintyFactor: number | null;

@@ -19,6 +19,8 @@ export type CalibrationInfo = {
   version: number;
   formalPotentialV: number;
   formalCoeffVPerK: number;
+  /** Accepted slope efficiency the conversion uses (1 = the full Nernst slope). */
+  slopeEfficiency: number;
   validFrom: string;
   reason: string;
 };

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { READING_FLAGS } from '../redox/nernst.ts';
 
 /** Device contract, MQTT 3.1.1: see README "Connecting probes". */
 export const TOPIC_PREFIX = 'ferrisight/v1';
@@ -75,7 +76,7 @@ export const ALL_DEVICES_FILTER = `${TOPIC_PREFIX}/#`;
  * ready to store) → live (what screens and the alarm engine get).
  */
 const idSchema = z.number().int().positive();
-const flagSchema = z.enum(['ok', 'outside-range']);
+const flagSchema = z.enum(READING_FLAGS);
 
 /** A reading that passed the device contract, not yet matched to a probe. */
 export const decodedReadingSchema = readingFieldsSchema.extend({

@@ -60,18 +60,18 @@ describe('demo seed with a week of history', () => {
   });
 
   it('when a stored history reading is converted again with its probe and calibration, then it gives the stored ratio', async () => {
-    const [r] = await rows<{ orp_mv: number; temp_c: number; ratio: number; e25: number; k: number; e0: number; k0: number }>(
-      `SELECT r.orp_mv, r.temp_c, r.ratio, p.reference_e25_v AS e25, p.reference_coeff_v_per_k AS k, c.formal_potential_v AS e0, c.formal_coeff_v_per_k AS k0
+    const [r] = await rows<{ orp_mv: number; temp_c: number; ratio: number; ref_id: string; e25: number; k: number; e0: number; k0: number; s: number }>(
+      `SELECT r.orp_mv, r.temp_c, r.ratio, p.reference_id AS ref_id, c.slope_efficiency AS s, p.reference_e25_v AS e25, p.reference_coeff_v_per_k AS k, c.formal_potential_v AS e0, c.formal_coeff_v_per_k AS k0
          FROM readings r JOIN probes p ON p.id = r.probe_id JOIN calibrations c ON c.tank_id = p.tank_id AND c.version = r.calibration_version
         WHERE p.tag = 'A1-ORP' ORDER BY r.ts LIMIT 1`);
-    const again = orpToRatio({ orpMv: r.orp_mv, tempC: r.temp_c, reference: { id: 'x', label: 'x', e25V: r.e25, coeffVPerK: r.k, source: 'test' }, formalPotentialV: r.e0, formalCoeffVPerK: r.k0 });
+    const again = orpToRatio({ orpMv: r.orp_mv, tempC: r.temp_c, reference: { id: r.ref_id, label: 'x', e25V: r.e25, coeffVPerK: r.k, source: 'test' }, formalPotentialV: r.e0, formalCoeffVPerK: r.k0, slopeEfficiency: r.s });
     expect(again.ratio).toBeCloseTo(r.ratio, 9);
   });
 
   it('when the assays of a tank are fitted on Calibration, then the fit recovers the seeded formal potential within a few mV', async () => {
     for (const [tag, circuit] of [['A1', 'A'], ['A3', 'A'], ['B1', 'B'], ['B4', 'B']] as const) {
       const fit = await calibrationService.fit(await tankId(tag), {
-        from: new Date(now.getTime() - 8 * DAY_MS).toISOString(), to: now.toISOString(), excluded: [],
+        from: new Date(now.getTime() - 8 * DAY_MS).toISOString(), to: now.toISOString(), excluded: [], slopeEfficiency: 1,
       });
       const seeded = DEMO_CIRCUITS.find((c) => c.tag === circuit)!;
       // Compared at the assays' temperature: a week in one tank spans too little to fit k.

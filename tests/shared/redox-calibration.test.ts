@@ -1,41 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { faraday, gasConstant } from 'mathjs';
-import { fitFormalPotential, ratioToOrpMv, referenceById, type AssaySample, type ReferenceElectrode } from '../../shared/redox';
-
-// Synthetic assays are generated from the Nernst equation written out here with
-// mathjs 15.2.0 constants (CODATA 2018), independently of the code under test.
-const F = faraday.toNumber('C/mol');
-const R = gasConstant.toNumber('J/(mol K)');
-const agcl3m = referenceById('agcl-3m');
-
-/** Deterministic pseudo-random numbers in [0, 1) (mulberry32), so failures reproduce. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-type Truth = { e0V: number; kVPerK: number; slopeEff?: number };
-
-function synthAssays(truth: Truth, temps: number[], ratios: number[], noiseMv: number, seed: number, ref: ReferenceElectrode = agcl3m): AssaySample[] {
-  const rand = seeded(seed);
-  const feTotal = 12; // g/L
-  const out: AssaySample[] = [];
-  temps.forEach((tempC) =>
-    ratios.forEach((ratio) => {
-      const ehV = truth.e0V + truth.kVPerK * (tempC - 25) + (truth.slopeEff ?? 1) * ((R * (tempC + 273.15)) / F) * Math.log(ratio);
-      const eRefV = ref.e25V + ref.coeffVPerK * (tempC - 25);
-      const noise = (2 * rand() - 1) * noiseMv; // uniform in ±noiseMv
-      out.push({ orpMv: (ehV - eRefV) * 1000 + noise, tempC, fe2: feTotal / (1 + ratio), feTotal });
-    }),
-  );
-  return out;
-}
+import { fitFormalPotential, ratioToOrpMv } from '../../shared/redox';
+import { linearRef as agcl3m, synthAssays } from '../helpers/synth-assays';
 
 describe('fitFormalPotential without a temperature coefficient', () => {
   it('when assays carry ±1 mV noise at one temperature, then E°′ is recovered within 1 mV and the rms is near the noise', () => {
@@ -110,14 +75,17 @@ describe('slopeEfficiency', () => {
 describe('fitFormalPotential rejects unusable assays', () => {
   const good = synthAssays({ e0V: 0.68, kVPerK: 0 }, [40], [1, 3, 9], 0, 1);
 
-  it('when fewer than 2 samples are given (3 when fitting k), then a RangeError names samples', () => {
+  it('when fewer than 2 samples are given, then a RangeError names samples', () => {
     expect(() => fitFormalPotential(good.slice(0, 1), { reference: agcl3m })).toThrow(/samples must be an array of at least 2/);
-    expect(() => fitFormalPotential(good.slice(0, 2), { reference: agcl3m, fitTempCoeff: true })).toThrow(/samples must be an array of at least 3/);
   });
 
-  it('when all temperatures are equal and k is fitted, then a RangeError names tempC', () => {
-    expect(() => fitFormalPotential(good, { reference: agcl3m, fitTempCoeff: true })).toThrow(RangeError);
-    expect(() => fitFormalPotential(good, { reference: agcl3m, fitTempCoeff: true })).toThrow(/tempC must span/);
+  it('when k is asked for but only 2 assays or one temperature are given, then k is held, not fitted', () => {
+    const two = fitFormalPotential(good.slice(0, 2), { reference: agcl3m, fitTempCoeff: true, tempCoeffVPerK: 0.001 });
+    expect(two.tempCoeffBasis).toBe('held-too-few-assays');
+    expect(two.formalCoeffVPerK).toBe(0.001);
+    const flat = fitFormalPotential(good, { reference: agcl3m, fitTempCoeff: true, tempCoeffVPerK: 0.001 });
+    expect(flat.fittedTempCoeff).toBe(false);
+    expect(flat.tempCoeffBasis).toBe('held-narrow-span');
   });
 
   it.each([

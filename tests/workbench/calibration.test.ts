@@ -48,21 +48,28 @@ async function campaign(tankTag: string, e0V: number, kVPerK: number, temps: num
 }
 
 describe('calibration from stored assays', () => {
-  it('when assays come from a known E°′ with ±1.5 mV noise at one temperature, then the fit recovers E°′ within 1 mV', async () => {
+  it('when assays come from a known E°′ with ±1.5 mV noise at one temperature, then the fit recovers E°′ there within 1 mV and keeps k in force', async () => {
     const temps = Array.from({ length: 12 }, (_, i) => 42 + (i % 3)); // 42–44 °C: under the 5 °C span, so k is not fitted
-    const c = await campaign('A3', 0.695, 0, temps, 1.5, 7);
+    // A tank whose coefficient is the demo's 0.9 mV/K in force: only E°′ has moved.
+    const c = await campaign('A3', 0.695, 0.0009, temps, 1.5, 7);
     const res = await as(t, 'supervisor').post(`/api/calibration/${c.id}/fit`, { from: c.from, to: c.to });
     expect(res.status).toBe(200);
     const fit = res.body;
     expect(fit.n).toBe(12);
     expect(fit.fittedTempCoeff).toBe(false);
+    // The span is too narrow to fit k, so the demo's 0.9 mV/K in force is kept, not replaced by 0.
+    expect(fit.tempCoeffBasis).toBe('held-narrow-span');
+    expect(fit.formalCoeffVPerK).toBe(0.0009);
+    expect(fit.tempCoeffNote).toMatch(/kept from calibration v\d+/);
     expect(Math.abs(fit.formalPotentialV - 0.695) * 1000).toBeLessThan(1);
+    expect(Math.abs(fit.atMeanTemp.formalPotentialV - formalPotentialAtV(0.695, fit.meanTempC, 0.0009)) * 1000).toBeLessThan(1);
+    expect(fit.atMeanTemp.standardErrorV * 1000).toBeLessThan(1);
     expect(fit.rmsMv).toBeLessThan(1.5);
     expect(fit.points).toHaveLength(12);
     expect(fit.slopeEfficiency).toBeGreaterThan(0.95);
     expect(fit.slopeWarning).toBeNull();
     // Against the demo calibration in force (0.684 V + 0.9 mV/K): the shift is the difference at the assays' temperature.
-    const expectedShift = (0.695 - formalPotentialAtV(0.684, fit.meanTempC, 0.0009)) * 1000;
+    const expectedShift = (formalPotentialAtV(0.695, fit.meanTempC, 0.0009) - formalPotentialAtV(0.684, fit.meanTempC, 0.0009)) * 1000;
     expect(fit.current.shiftMv).toBeCloseTo(expectedShift, 0);
   });
 
@@ -97,7 +104,7 @@ describe('calibration from stored assays', () => {
     expect((await as(t, 'supervisor').post(`/api/calibration/${a3}/apply`, { from, to, reason: 'x-x-x', expectedFormalPotentialV: fit.formalPotentialV })).status).toBe(403);
     const res = await m.post(`/api/calibration/${a3}/apply`, { from, to, reason: 'Week 48 assays', expectedFormalPotentialV: fit.formalPotentialV });
     expect(res.status).toBe(201);
-    expect(res.body.calibration).toMatchObject({ version: 2, reason: 'Week 48 assays', formalCoeffVPerK: 0, fit: { n: 12 } });
+    expect(res.body.calibration).toMatchObject({ version: 2, reason: 'Week 48 assays', formalCoeffVPerK: 0.0009, fit: { n: 12 } });
     expect(await auditActions(t, 'tank', a3)).toContain('calibration.apply');
     const overview = (await as(t, 'operator').get(`/api/calibration/${a3}`)).body;
     expect(overview.inForce.version).toBe(2);
@@ -112,7 +119,7 @@ describe('calibration from stored assays', () => {
       const out = convertReading(reading, cache, { receivedAtMs: Date.now(), retentionDays: 90 });
       if (typeof out === 'string') throw new Error(out);
       expect(out.calibrationVersion).toBe(2);
-      const expected = orpToRatio({ orpMv: 430, tempC: 43, reference: REF, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: 0 });
+      const expected = orpToRatio({ orpMv: 430, tempC: 43, reference: REF, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: 0.0009 });
       expect(out.ratio).toBeCloseTo(expected.ratio, 9);
       const before = orpToRatio({ orpMv: 430, tempC: 43, reference: REF, formalPotentialV: 0.684, formalCoeffVPerK: 0.0009 });
       expect(out.ratio / before.ratio).not.toBeCloseTo(1, 2);
@@ -136,7 +143,7 @@ describe('calibration from stored assays', () => {
     expect(inside).toHaveLength(10);
     for (const r of inside) {
       expect(r.calibration_version).toBe(2);
-      expect(r.ratio).toBeCloseTo(orpToRatio({ orpMv: r.orp_mv, tempC: r.temp_c, reference: REF, formalPotentialV: cal.formalPotentialV, formalCoeffVPerK: 0 }).ratio, 9);
+      expect(r.ratio).toBeCloseTo(orpToRatio({ orpMv: r.orp_mv, tempC: r.temp_c, reference: REF, formalPotentialV: cal.formalPotentialV, formalCoeffVPerK: cal.formalCoeffVPerK }).ratio, 9);
     }
     expect(rows.filter((r) => r.ts >= to).every((r) => r.calibration_version === 1)).toBe(true);
     // The trend's minute rollups follow the rewritten readings.

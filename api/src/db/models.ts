@@ -57,6 +57,8 @@ export class Calibration extends Model<InferAttributes<Calibration>, InferCreati
   declare version: number;
   declare formalPotentialV: number;
   declare formalCoeffVPerK: number;
+  /** Accepted slope efficiency the conversion uses; 1 = the full Nernst slope. */
+  declare slopeEfficiency: CreationOptional<number>;
   declare validFrom: Date;
   declare reason: string;
   declare createdBy: number | null;
@@ -145,6 +147,7 @@ export function initModels(sequelize: Sequelize): void {
     version: { type: DataTypes.INTEGER, allowNull: false },
     formalPotentialV: { type: DataTypes.DOUBLE, allowNull: false },
     formalCoeffVPerK: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+    slopeEfficiency: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 1 },
     validFrom: { type: DataTypes.DATE(3), allowNull: false },
     reason: { type: DataTypes.STRING(500), allowNull: false },
     createdBy: { type: DataTypes.INTEGER, allowNull: true },

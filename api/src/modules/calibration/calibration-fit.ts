@@ -1,15 +1,28 @@
 import {
-  fitFormalPotential, formalPotentialAtV, ratioToOrpMv, type AssaySample, type ReferenceElectrode,
+  fitFormalPotential, formalPotentialAtV, ratioToOrpMv, type AssaySample, type FormalPotentialFit, type ReferenceElectrode,
 } from '../../../../shared/redox/index.ts';
 import type { Assay } from '../../../../shared/schemas/assays.ts';
 import { SLOPE_EFFICIENCY_OK, type FitPoint, type FitResult } from '../../../../shared/schemas/calibration.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { ProbeRef } from './calibration.repository.ts';
 
-type Current = { version: number; formalPotentialV: number; formalCoeffVPerK: number } | null;
+type Current = { version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency: number } | null;
 
 const sameReference = (a: ReferenceElectrode, b: ReferenceElectrode) => a.e25V === b.e25V && a.coeffVPerK === b.coeffVPerK;
 const rms = (xs: number[]) => Math.sqrt(xs.reduce((s, x) => s + x * x, 0) / xs.length);
+
+/** Which k the fit used and why, in words for the Calibration screen. */
+function tempCoeffNote(fit: FormalPotentialFit, spanC: number, minSpanC: number, cur: Current): string {
+  const k = `${(fit.formalCoeffVPerK * 1000).toFixed(2)} mV/K`;
+  const span = `the assays span ${spanC.toFixed(1)} °C`;
+  switch (fit.tempCoeffBasis) {
+    case 'fitted': return `k = ${k}, fitted: ${span} (at least ${minSpanC} °C needed)`;
+    case 'held-too-few-assays': return `k = ${k}, kept from calibration v${cur?.version}: fewer than 3 usable assays, too few to fit it`;
+    case 'held-narrow-span':
+    case 'held': return `k = ${k}, kept from calibration v${cur?.version}: ${span}, less than the ${minSpanC} °C needed to fit it`;
+    default: return `k = 0 (no calibration in force to keep it from, and ${span}, less than ${minSpanC} °C): E°′ holds only near the assays' mean temperature`;
+  }
+}
 
 /**
  * Chooses the usable assays, fits E°′ (and k when the temperatures span enough) with
@@ -18,7 +31,7 @@ const rms = (xs: number[]) => Math.sqrt(xs.reduce((s, x) => s + x * x, 0) / xs.l
  */
 export function fitFromAssays(input: {
   tankId: number; assays: Assay[]; excluded: Array<{ assayId: number; reason: string }>; probes: ProbeRef[];
-  current: Current; minTempSpanC: number; windowMin: number;
+  current: Current; minTempSpanC: number; windowMin: number; slopeEfficiency: number;
 }): FitResult {
   const active = input.probes.find((p) => p.active) ?? input.probes[0];
   if (!active) throw AppError.badRequest('This tank has no probe, so there is nothing to calibrate');
@@ -38,13 +51,16 @@ export function fitFromAssays(input: {
   const temps = used.map((u) => u.sample.tempC);
   const tempSpanC = temps.length ? Math.max(...temps) - Math.min(...temps) : 0;
   const meanTempC = temps.length ? temps.reduce((s, t) => s + t, 0) / temps.length : 25;
-  const fitK = tempSpanC >= input.minTempSpanC && used.length >= 3;
   if (used.length < 2) {
     throw AppError.badRequest(`At least 2 usable assays are needed (${used.length} usable, ${skipped.length} skipped, ${excludedIds.size} excluded)`, { skipped });
   }
-  let fit: ReturnType<typeof fitFormalPotential>;
+  let fit: FormalPotentialFit;
   try {
-    fit = fitFormalPotential(used.map((u) => u.sample), { reference: active.reference, fitTempCoeff: fitK });
+    // Over a narrow span k stays at the value in force instead of silently becoming 0.
+    fit = fitFormalPotential(used.map((u) => u.sample), {
+      reference: active.reference, fitTempCoeff: true, minTempSpanC: input.minTempSpanC, tempCoeffVPerK: input.current?.formalCoeffVPerK,
+      slopeEfficiency: input.slopeEfficiency,
+    });
   } catch (err) {
     throw AppError.badRequest(`The fit failed: ${(err as Error).message}`);
   }
@@ -52,8 +68,13 @@ export function fitFromAssays(input: {
   const points: FitPoint[] = used.map((u, i) => ({
     assayId: u.assay.id, sampledAt: u.assay.sampledAt, labRatio: u.assay.labRatio!, orpMv: u.sample.orpMv, tempC: u.sample.tempC,
     residualMv: fit.residualsMv[i],
+    studentizedResidual: fit.studentizedResiduals[i],
+    suspect: fit.suspectSamples.includes(i),
+    nernstTermV: fit.points[i].nernstTermV,
+    eSheV: fit.points[i].eSheV,
+    pointFormalPotentialV: fit.points[i].formalPotentialV,
     currentResidualMv: cur
-      ? u.sample.orpMv - ratioToOrpMv({ ratio: u.assay.labRatio!, tempC: u.sample.tempC, reference: active.reference, formalPotentialV: cur.formalPotentialV, formalCoeffVPerK: cur.formalCoeffVPerK })
+      ? u.sample.orpMv - ratioToOrpMv({ ratio: u.assay.labRatio!, tempC: u.sample.tempC, reference: active.reference, formalPotentialV: cur.formalPotentialV, formalCoeffVPerK: cur.formalCoeffVPerK, slopeEfficiency: cur.slopeEfficiency })
       : null,
   }));
   const eff = fit.slopeEfficiency;
@@ -61,11 +82,11 @@ export function fitFromAssays(input: {
     ? `Slope efficiency ${(eff * 100).toFixed(1)} % is outside ${SLOPE_EFFICIENCY_OK.min * 100}–${SLOPE_EFFICIENCY_OK.max * 100} %: clean or check the probe before trusting this fit`
     : null;
   return {
-    tankId: input.tankId, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: fit.formalCoeffVPerK, fittedTempCoeff: fitK,
-    tempCoeffNote: fitK
-      ? `Fitted: the assays span ${tempSpanC.toFixed(1)} °C (at least ${input.minTempSpanC} °C needed)`
-      : `Not fitted: the assays span ${tempSpanC.toFixed(1)} °C, less than ${input.minTempSpanC} °C${used.length < 3 ? ' or fewer than 3 assays' : ''}; k = 0, so E°′ holds at the assays' temperature (${meanTempC.toFixed(1)} °C)`,
+    tankId: input.tankId, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: fit.formalCoeffVPerK, fittedTempCoeff: fit.fittedTempCoeff,
+    tempCoeffBasis: fit.tempCoeffBasis, usedSlopeEfficiency: input.slopeEfficiency,
+    tempCoeffNote: tempCoeffNote(fit, tempSpanC, input.minTempSpanC, cur),
     tempSpanC, meanTempC, n: fit.n, rmsMv: fit.rmsMv, slopeEfficiency: eff, slopeWarning, points, skipped,
+    standardErrors: fit.standardErrors, atMeanTemp: fit.atMeanTemp, slopeFit: fit.slopeFit,
     excluded: input.excluded.filter((e) => input.assays.some((a) => a.id === e.assayId)),
     current: cur && {
       version: cur.version, formalPotentialV: cur.formalPotentialV, formalCoeffVPerK: cur.formalCoeffVPerK,

@@ -7,7 +7,7 @@ import type { Pool } from '../../db/pool.ts';
 import { CalibrationFitRow } from '../../db/workbench-models.ts';
 
 type VersionRow = {
-  version: number; formal_potential_v: number; formal_coeff_v_per_k: number; valid_from: Date; reason: string;
+  version: number; formal_potential_v: number; formal_coeff_v_per_k: number; accepted_slope: number; valid_from: Date; reason: string;
   created_by: number | null; creator: string | null; n: number | null; rms_mv: number | null; slope_efficiency: number | null;
   from_ts: Date | null; to_ts: Date | null;
 };
@@ -21,14 +21,14 @@ export const calibrationRepository = {
   /** Every version of a tank's calibration, newest first, with what each was fitted from. */
   async versions(tankId: number): Promise<CalibrationVersion[]> {
     const rows = await Tank.sequelize!.query<VersionRow>(
-      `SELECT c.version, c.formal_potential_v, c.formal_coeff_v_per_k, c.valid_from, c.reason, c.created_by, u.name AS creator,
+      `SELECT c.version, c.formal_potential_v, c.formal_coeff_v_per_k, c.slope_efficiency AS accepted_slope, c.valid_from, c.reason, c.created_by, u.name AS creator,
               f.n, f.rms_mv, f.slope_efficiency, f.from_ts, f.to_ts
          FROM calibrations c LEFT JOIN users u ON u.id = c.created_by LEFT JOIN calibration_fits f ON f.calibration_id = c.id
         WHERE c.tank_id = :tankId ORDER BY c.version DESC`,
       { replacements: { tankId }, type: QueryTypes.SELECT },
     );
     return rows.map((r) => ({
-      version: r.version, formalPotentialV: r.formal_potential_v, formalCoeffVPerK: r.formal_coeff_v_per_k,
+      version: r.version, formalPotentialV: r.formal_potential_v, formalCoeffVPerK: r.formal_coeff_v_per_k, slopeEfficiency: r.accepted_slope,
       validFrom: r.valid_from.toISOString(), reason: r.reason,
       createdBy: r.created_by === null ? null : { id: r.created_by, name: r.creator ?? '' },
       fit: r.n === null || !r.from_ts || !r.to_ts ? null : {
@@ -53,12 +53,12 @@ export const calibrationRepository = {
 
   async byVersion(tankId: number, version: number, transaction?: Transaction) {
     const c = await Calibration.findOne({ where: { tankId, version }, transaction });
-    return c && { version: c.version, formalPotentialV: c.formalPotentialV, formalCoeffVPerK: c.formalCoeffVPerK };
+    return c && { version: c.version, formalPotentialV: c.formalPotentialV, formalCoeffVPerK: c.formalCoeffVPerK, slopeEfficiency: c.slopeEfficiency };
   },
 
   /** New version = highest + 1, under a lock on the tank row so two applies cannot collide. */
   async create(input: {
-    tankId: number; formalPotentialV: number; formalCoeffVPerK: number; reason: string; userId: number;
+    tankId: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency: number; reason: string; userId: number;
     fit: { from: Date; to: Date; n: number; rmsMv: number; slopeEfficiency: number | null; tempSpanC: number; fittedTempCoeff: boolean; points: unknown; excluded: unknown };
   }, transaction: Transaction): Promise<number> {
     await Tank.findByPk(input.tankId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
@@ -66,7 +66,7 @@ export const calibrationRepository = {
     const now = new Date();
     const cal = await Calibration.create({
       tankId: input.tankId, version: max + 1, formalPotentialV: input.formalPotentialV, formalCoeffVPerK: input.formalCoeffVPerK,
-      validFrom: now, reason: input.reason, createdBy: input.userId,
+      slopeEfficiency: input.slopeEfficiency, validFrom: now, reason: input.reason, createdBy: input.userId,
     }, { transaction });
     const f = input.fit;
     await CalibrationFitRow.create({

@@ -44,7 +44,7 @@ export const calibrationService = {
     const current = versions[0] ?? null;
     return fitFromAssays({
       tankId, assays, excluded: input.excluded, probes, current, minTempSpanC: settings.calibrationMinTempSpanC,
-      windowMin: settings.assayMatchWindowMin,
+      windowMin: settings.assayMatchWindowMin, slopeEfficiency: input.slopeEfficiency,
     });
   },
 
@@ -56,7 +56,8 @@ export const calibrationService = {
     }
     const version = await Tank.sequelize!.transaction(async (tx) => {
       const v = await repo.create({
-        tankId, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: fit.formalCoeffVPerK, reason: input.reason, userId,
+        tankId, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: fit.formalCoeffVPerK, slopeEfficiency: fit.usedSlopeEfficiency,
+        reason: input.reason, userId,
         fit: {
           from: new Date(input.from), to: new Date(input.to), n: fit.n, rmsMv: fit.rmsMv, slopeEfficiency: fit.slopeEfficiency,
           tempSpanC: fit.tempSpanC, fittedTempCoeff: fit.fittedTempCoeff, points: fit.points, excluded: fit.excluded,
@@ -65,7 +66,10 @@ export const calibrationService = {
       await writeAudit({
         userId, action: 'calibration.apply', entity: 'tank', entityId: tankId, reason: input.reason,
         before: fit.current && { version: fit.current.version, formalPotentialV: fit.current.formalPotentialV, formalCoeffVPerK: fit.current.formalCoeffVPerK },
-        after: { version: v, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: fit.formalCoeffVPerK, n: fit.n, rmsMv: fit.rmsMv },
+        after: {
+          version: v, formalPotentialV: fit.formalPotentialV, formalCoeffVPerK: fit.formalCoeffVPerK, slopeEfficiency: fit.usedSlopeEfficiency,
+          n: fit.n, rmsMv: fit.rmsMv,
+        },
       }, tx);
       return v;
     });

@@ -6,7 +6,7 @@ import { lockReadingsPage, rewriteConversions, type ReadingRow } from '../readin
 import { recomputeRollups } from '../readings/rollups.repository.ts';
 import type { ProbeRef } from './calibration.repository.ts';
 
-type Cal = { version: number; formalPotentialV: number; formalCoeffVPerK: number };
+type Cal = { version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency: number };
 
 const PAGE = 5000;
 const MINUTE_MS = 60_000;
@@ -32,7 +32,7 @@ export async function recomputeReadings(
         const rows: ReadingRow[] = page.map((r) => {
           let out: ReturnType<typeof orpToRatio>;
           try {
-            out = orpToRatio({ orpMv: r.orpMv, tempC: r.tempC, reference: probe.reference, formalPotentialV: cal.formalPotentialV, formalCoeffVPerK: cal.formalCoeffVPerK });
+            out = orpToRatio({ orpMv: r.orpMv, tempC: r.tempC, reference: probe.reference, formalPotentialV: cal.formalPotentialV, formalCoeffVPerK: cal.formalCoeffVPerK, slopeEfficiency: cal.slopeEfficiency });
           } catch (err) {
             throw AppError.badRequest(`Reading of ${probe.tag} at ${r.ts} cannot be converted: ${(err as Error).message}. Nothing was changed.`);
           }

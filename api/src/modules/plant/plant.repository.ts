@@ -1,3 +1,4 @@
+import type { ReadingFlag } from '../../../../shared/redox/index.ts';
 import { QueryTypes } from 'sequelize';
 import type { CalibrationInfo, ProbeInfo, SiteSummary, TankSummary } from '../../../../shared/schemas/plant.ts';
 import type { TankLive } from '../../../../shared/schemas/readings.ts';
@@ -8,7 +9,7 @@ const iso = (d: Date) => d.toISOString();
 
 type LatestRow = {
   probe_id: number; tank_id: number; tag: string; ts: Date; orp_mv: number; temp_c: number; eh_v: number;
-  ratio: number; ferric_fraction: number; flag: 'ok' | 'outside-range'; calibration_version: number;
+  ratio: number; ferric_fraction: number; flag: ReadingFlag; calibration_version: number;
 };
 
 /** Newest reading per probe; the (probe_id, ts) primary key makes MAX(ts) per probe an index walk. */
@@ -30,7 +31,7 @@ async function latestCalibrations(): Promise<Map<number, CalibrationInfo>> {
   const all = await Calibration.findAll({ order: [['tankId', 'ASC'], ['version', 'ASC']] });
   const byTank = new Map<number, CalibrationInfo>();
   for (const c of all) {
-    byTank.set(c.tankId, { version: c.version, formalPotentialV: c.formalPotentialV, formalCoeffVPerK: c.formalCoeffVPerK, validFrom: iso(c.validFrom), reason: c.reason });
+    byTank.set(c.tankId, { version: c.version, formalPotentialV: c.formalPotentialV, formalCoeffVPerK: c.formalCoeffVPerK, slopeEfficiency: c.slopeEfficiency, validFrom: iso(c.validFrom), reason: c.reason });
   }
   return byTank;
 }

@@ -18,7 +18,10 @@ export class CalibrationHistory {
     const byTank = new Map<number, Cal[]>();
     for (const r of rows) {
       const list = byTank.get(r.tankId) ?? [];
-      list.push({ version: r.version, formalPotentialV: r.formalPotentialV, formalCoeffVPerK: r.formalCoeffVPerK, validFromMs: r.validFromMs });
+      list.push({
+        version: r.version, formalPotentialV: r.formalPotentialV, formalCoeffVPerK: r.formalCoeffVPerK, slopeEfficiency: r.slopeEfficiency ?? 1,
+        validFromMs: r.validFromMs,
+      });
       byTank.set(r.tankId, list);
     }
     // Same valid_from twice: the higher version wins, as a later correction of the same fit.

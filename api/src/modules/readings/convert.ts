@@ -35,7 +35,7 @@ export function convertReading(r: DecodedReading, lookup: ProbeLookup, opts: Pip
   try {
     const out = orpToRatio({
       orpMv: r.orpMv, tempC: r.tempC, reference: probe.reference,
-      formalPotentialV: cal.formalPotentialV, formalCoeffVPerK: cal.formalCoeffVPerK,
+      formalPotentialV: cal.formalPotentialV, formalCoeffVPerK: cal.formalCoeffVPerK, slopeEfficiency: cal.slopeEfficiency,
     });
     return {
       probeId: probe.probeId, tankId: probe.tankId, probeTag: probe.probeTag, siteTag: probe.siteTag,

@@ -1,3 +1,4 @@
+import type { ReferenceTablePoint } from '../../../../shared/redox/index.ts';
 import { fromSqlTs, type Pool } from '../../db/pool.ts';
 
 /**
@@ -9,11 +10,15 @@ export type ProbeRow = {
   probe_id: number; probe_tag: string; tank_id: number; site_tag: string; reference_id: string;
   reference_e25_v: number; reference_coeff_v_per_k: number;
   version: number | null; formal_potential_v: number | null; formal_coeff_v_per_k: number | null;
+  slope_efficiency?: number | null; reference_table?: string | ReferenceTablePoint[] | null; suspect?: number | null;
 };
 
 const PROBES_SQL = `
   SELECT p.id AS probe_id, p.tag AS probe_tag, p.tank_id, s.tag AS site_tag, p.reference_id,
-         p.reference_e25_v, p.reference_coeff_v_per_k, c.version, c.formal_potential_v, c.formal_coeff_v_per_k
+         p.reference_e25_v, p.reference_coeff_v_per_k, p.reference_table, c.version, c.formal_potential_v,
+         c.formal_coeff_v_per_k, c.slope_efficiency,
+         (SELECT pc.pass = 0 AND NOT EXISTS (SELECT 1 FROM probe_replacements pr WHERE pr.probe_id = p.id AND pr.replaced_at >= pc.checked_at)
+            FROM probe_checks pc WHERE pc.probe_id = p.id ORDER BY pc.checked_at DESC, pc.id DESC LIMIT 1) AS suspect
     FROM probes p
     JOIN tanks t ON t.id = p.tank_id
     JOIN circuits ci ON ci.id = t.circuit_id
@@ -28,7 +33,9 @@ const TAGS_SQL = `
     LEFT JOIN tanks t ON t.circuit_id = ci.id
     LEFT JOIN probes p ON p.tank_id = t.id`;
 
-export type CalibrationRow = { tankId: number; version: number; formalPotentialV: number; formalCoeffVPerK: number; validFromMs: number };
+export type CalibrationRow = {
+  tankId: number; version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency?: number; validFromMs: number;
+};
 export type DeviceRow = { password_hash: string; enabled: number; site_tag: string };
 
 export const lookupsRepository = {
@@ -42,11 +49,11 @@ export const lookupsRepository = {
 
   /** Every calibration of every tank (valid_from read as the pool's date text). */
   async calibrations(pool: Pool): Promise<CalibrationRow[]> {
-    const rows: { tank_id: number; version: number; formal_potential_v: number; formal_coeff_v_per_k: number; valid_from: string }[] =
-      await pool.query('SELECT tank_id, version, formal_potential_v, formal_coeff_v_per_k, valid_from FROM calibrations');
+    const rows: { tank_id: number; version: number; formal_potential_v: number; formal_coeff_v_per_k: number; slope_efficiency: number; valid_from: string }[] =
+      await pool.query('SELECT tank_id, version, formal_potential_v, formal_coeff_v_per_k, slope_efficiency, valid_from FROM calibrations');
     return rows.map((r) => ({
       tankId: r.tank_id, version: r.version, formalPotentialV: r.formal_potential_v,
-      formalCoeffVPerK: r.formal_coeff_v_per_k ?? 0, validFromMs: fromSqlTs(r.valid_from),
+      formalCoeffVPerK: r.formal_coeff_v_per_k ?? 0, slopeEfficiency: r.slope_efficiency ?? 1, validFromMs: fromSqlTs(r.valid_from),
     }));
   },
 

@@ -1,4 +1,4 @@
-import type { ReferenceElectrode } from '../../../../shared/redox/index.ts';
+import type { ReferenceElectrode, ReferenceTablePoint } from '../../../../shared/redox/index.ts';
 import type { Pool } from '../../db/pool.ts';
 import { lookupsRepository, type ProbeRow } from './lookups.repository.ts';
 
@@ -10,11 +10,18 @@ export type ProbeEntry = {
   siteTag: string;
   reference: ReferenceElectrode;
   /** The tank's calibration with the highest version; null when the tank has none. */
-  calibration: { version: number; formalPotentialV: number; formalCoeffVPerK: number } | null;
+  calibration: { version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency: number } | null;
 };
 
 /** What the pipeline asks of a cache; tests pass a plain object. */
 export type ProbeLookup = { probe(tag: string): ProbeEntry | undefined; hasSite(tag: string): boolean };
+
+/** A maker's table stored as JSON (MariaDB returns JSON columns as text). */
+export function referenceTableOf(raw: string | ReferenceTablePoint[] | null | undefined): { table?: ReferenceTablePoint[] } {
+  if (raw === null || raw === undefined) return {};
+  const table = typeof raw === 'string' ? (JSON.parse(raw) as ReferenceTablePoint[]) : raw;
+  return Array.isArray(table) && table.length >= 2 ? { table } : {};
+}
 
 /** Builds a lookup from query rows (exported for tests and the API's historical import). */
 export function buildLookup(rows: ProbeRow[], siteTags: string[]): ProbeLookup {
@@ -22,9 +29,13 @@ export function buildLookup(rows: ProbeRow[], siteTags: string[]): ProbeLookup {
   for (const r of rows) {
     probes.set(r.probe_tag, {
       probeId: r.probe_id, probeTag: r.probe_tag, tankId: r.tank_id, siteTag: r.site_tag,
-      reference: { id: r.reference_id, label: r.reference_id, e25V: r.reference_e25_v, coeffVPerK: r.reference_coeff_v_per_k, source: `probe ${r.probe_tag}` },
+      reference: {
+        id: r.reference_id, label: r.reference_id, e25V: r.reference_e25_v, coeffVPerK: r.reference_coeff_v_per_k, source: `probe ${r.probe_tag}`,
+        ...referenceTableOf(r.reference_table),
+      },
       calibration: r.version === null ? null : {
         version: r.version, formalPotentialV: r.formal_potential_v!, formalCoeffVPerK: r.formal_coeff_v_per_k ?? 0,
+        slopeEfficiency: r.slope_efficiency ?? 1,
       },
     });
   }

@@ -22,14 +22,17 @@ export function FitPanel({ tankId, timeZone, canApply, onCalibrationChanged }: P
   const [excluded, setExcluded] = useState<Exclusions>({});
   const [errors, setErrors] = useState<FieldErrors>({});
   const [applied, setApplied] = useState<ApplyResult | null>(null);
+  const [slope, setSlope] = useState(1);
   const fromIso = siteLocalToIso(range.from, timeZone) ?? '';
   const toIso = siteLocalToIso(range.to, timeZone) ?? '';
   const assays = useTankAssays(tankId, fromIso, toIso);
   const fit = useFitCalibration();
-  const input: CalibrationFitInput = { from: fromIso, to: toIso, excluded: Object.entries(excluded).map(([id, reason]) => ({ assayId: Number(id), reason })) };
+  const input: CalibrationFitInput = {
+    from: fromIso, to: toIso, excluded: Object.entries(excluded).map(([id, reason]) => ({ assayId: Number(id), reason })), slopeEfficiency: slope,
+  };
 
-  const runFit = () => {
-    const parsed = calibrationFitSchema.safeParse(input);
+  const runFit = (withSlope = slope) => {
+    const parsed = calibrationFitSchema.safeParse({ ...input, slopeEfficiency: withSlope });
     if (!parsed.success) {
       const e = issuesToFieldErrors(parsed.error.issues);
       return setErrors(e.excluded ? { ...e, excluded: 'Give a reason (at least 3 characters) for every assay left out' } : e);
@@ -60,14 +63,22 @@ export function FitPanel({ tankId, timeZone, canApply, onCalibrationChanged }: P
       )}
       {errors.excluded && <p className="text-sm font-medium text-attention-1-ink">✕ {errors.excluded}</p>}
       <FormError>{formMessage(fit.error)}</FormError>
-      <div className="flex justify-end">
-        <Button variant="primary" onClick={runFit} disabled={fit.isPending || !assays.data?.assays.length}>
+      <div className="flex justify-end gap-2">
+        {slope !== 1 && (
+          <Button onClick={() => { setSlope(1); runFit(1); }} disabled={fit.isPending}>Back to the full Nernst slope</Button>
+        )}
+        <Button variant="primary" onClick={() => runFit()} disabled={fit.isPending || !assays.data?.assays.length}>
           {fit.isPending ? 'Fitting…' : 'Fit E°′'}
         </Button>
       </div>
       {fit.data && (
         <>
-          <FitResultView fit={fit.data} timeZone={timeZone} />
+          <FitResultView
+            fit={fit.data} timeZone={timeZone}
+            onUseSlope={(s) => { setSlope(s); runFit(s); }}
+            // The reason box opens in the assay list above; the next fit leaves the assay out.
+            onExclude={(id) => { setExcluded((x) => ({ ...x, [id]: x[id] ?? '' })); fit.reset(); }}
+          />
           {canApply && !applied && (
             <ApplyForm tankId={tankId} window={input} fit={fit.data} onApplied={setApplied} onCalibrationChanged={onCalibrationChanged} />
           )}

@@ -1,28 +1,10 @@
-import { useEffect, useMemo, useRef, useState, type RefObject } from 'react';
+import { useMemo, useRef } from 'react';
 import UplotReact from 'uplot-react';
 import type uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import type { FitPoint } from '@shared/schemas/calibration';
 import { useTheme } from '../../../lib/theme';
-
-function useWidth(ref: RefObject<HTMLDivElement | null>): number {
-  const [w, setW] = useState(0);
-  useEffect(() => {
-    const el = ref.current;
-    if (!el) return;
-    const ro = new ResizeObserver(([e]) => setW(Math.floor(e.contentRect.width)));
-    ro.observe(el);
-    return () => ro.disconnect();
-  }, [ref]);
-  return w;
-}
-
-/** Canvas cannot read CSS variables: resolve them once per theme (the argument is the cache key). */
-function readColours(_theme: string) {
-  const css = getComputedStyle(document.documentElement);
-  const v = (name: string) => css.getPropertyValue(name).trim() || '#888';
-  return { ink: v('--fs-chart-line'), muted: v('--fs-ink-muted'), grid: v('--fs-chart-grid') };
-}
+import { readColours, useWidth } from './chart-kit';
 
 /**
  * Residuals in mV against sampling time: filled dots for the new fit, open rings for the

@@ -86,6 +86,18 @@ export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHr
             <span aria-hidden="true">◆ </span>Outside calibrated range: the ratio is clamped; check the probe.
           </p>
         )}
+        {latest?.flag === 'reference-extrapolated' && (
+          <p className="text-sm font-semibold text-attention-3-ink" data-testid="reference-flag">
+            <span aria-hidden="true">◆ </span>Reference electrode extrapolated: {formatTempC(latest.tempC)} °C is outside the temperatures its
+            published data covers, so the ratio is less certain. Enter the probe maker's table if you have it.
+          </p>
+        )}
+        {latest?.flag === 'reference-unusable' && (
+          <p className="text-sm font-semibold text-attention-1-ink" data-testid="reference-flag">
+            <span aria-hidden="true">◆ </span>Reference electrode above its usable temperature ({formatTempC(latest.tempC)} °C; calomel is not used
+            above about 70 °C, common practice): do not trust this ratio.
+          </p>
+        )}
       </section>
 
       <Section title="Band">
@@ -152,6 +164,10 @@ export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHr
             </Fact>
             <Fact label="Coefficient">
               <Quantity value={formatFixed(calibration.formalCoeffVPerK * 1000, 3)} unit="mV/K" />
+            </Fact>
+            <Fact label="Slope efficiency">
+              <Quantity value={formatFixed(calibration.slopeEfficiency * 100, 1)} unit="%" />
+              {calibration.slopeEfficiency === 1 && <span className="text-ink-muted"> (full Nernst slope)</span>}
             </Fact>
             <Fact label="Valid from">{formatDateTime(calibration.validFrom, timeZone)}</Fact>
             <Fact label="Reason">
