@@ -70,7 +70,7 @@ export function createApp(deps: AppDeps): Express {
     ['/api/bands', bandsRouter(deps.bus)],
     ['/api/assays', assaysRouter()],
     ['/api/calibration', calibrationRouter(deps.bus)],
-    ['/api/probe-checks', probeChecksRouter()],
+    ['/api/probe-checks', probeChecksRouter(deps.bus)],
     ['/api/dose', doseRouter()],
     ['/api/site-settings', siteSettingsRouter()],
     ['/api/shifts', shiftsRouter()],

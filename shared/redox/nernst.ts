@@ -65,9 +65,11 @@ export type RedoxConditions = {
 /**
  * Quality of a converted reading, worst first: 'outside-range' (|log10 ratio| > 4),
  * 'reference-unusable' (reference electrode above its usable temperature, e.g. calomel above
- * about 70 °C), 'reference-extrapolated' (outside the temperatures its source covers), 'ok'.
+ * about 70 °C), 'probe-suspect' (set where readings are stored: the probe failed its last check
+ * and has not passed one or been replaced since), 'reference-extrapolated' (outside the
+ * temperatures its source covers), 'ok'.
  */
-export const READING_FLAGS = ['ok', 'outside-range', 'reference-extrapolated', 'reference-unusable'] as const;
+export const READING_FLAGS = ['ok', 'outside-range', 'reference-extrapolated', 'reference-unusable', 'probe-suspect'] as const;
 export type ReadingFlag = (typeof READING_FLAGS)[number];
 
 /** Widest accepted slope efficiency: beyond ±50 % the probe is broken, not sluggish. */

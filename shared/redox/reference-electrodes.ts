@@ -129,6 +129,19 @@ const LAWS = new Map<string, Law>([
   ['sce-bf', CALOMEL],
   ['she', { kind: 'linear', minC: TEMP_MIN_C, maxC: TEMP_MAX_C, rangeSource: 'Definition: 0 V at all temperatures' }],
 ]);
+// Straight-line coefficients these ids carried before they followed Bates & Bower: a probe stored with
+// one of them still follows the curve; any other coefficient was entered by hand and is honoured.
+const EARLIER_DEFAULTS = new Map<string, number>([['agcl-3.5m', -0.00075], ['agcl-3m', -0.00075], ['agcl-1m', -0.0006]]);
+
+/** The built-in law a probe follows: its id's, unless its coefficient was entered by hand. */
+function lawOf(ref: ReferenceElectrode): Law | undefined {
+  const law = LAWS.get(ref.id);
+  if (law?.kind !== 'agcl-chloride') return law;
+  const builtIn = REFERENCE_ELECTRODES.find((r) => r.id === ref.id)!;
+  const own = ref.coeffVPerK !== builtIn.coeffVPerK && ref.coeffVPerK !== EARLIER_DEFAULTS.get(ref.id);
+  return own ? { kind: 'linear', minC: 25, maxC: 25, rangeSource: 'the probe\'s own 25 °C value and coefficient' } : law;
+}
+
 // A probe entered by hand with its own value and coefficient: a straight line, valid where its maker says.
 const UNKNOWN: Law = { kind: 'linear', minC: 25, maxC: 25, rangeSource: 'the probe\'s own 25 °C value and coefficient' };
 
@@ -180,7 +193,8 @@ function tableV(table: ReferenceTablePoint[], tempC: number): number {
  * Reference electrode potential vs SHE at the probe temperature.
  * @param ref the probe's reference electrode; its id picks the built-in temperature law
  *   (Bates & Bower's E°(T) for the KCl-strength Ag/AgCl electrodes, a straight line otherwise),
- *   anchored at the probe's own e25V; a maker's table, when given, is used instead
+ *   anchored at the probe's own e25V; a coefficient entered by hand makes it a straight line,
+ *   and a maker's table, when given, is used instead
  * @param tempC probe temperature, °C
  * @returns E_ref(T) in V vs SHE (see referenceStatus for whether tempC is inside the source's data)
  */
@@ -188,7 +202,7 @@ export function referencePotentialV(ref: ReferenceElectrode, tempC: number): num
   requireReference('reference', ref);
   requireTempC('tempC', tempC);
   if (ref.table) return tableV(ref.table, tempC);
-  if (LAWS.get(ref.id)?.kind === 'agcl-chloride') return agclChlorideV(ref.e25V, tempC);
+  if (lawOf(ref)?.kind === 'agcl-chloride') return agclChlorideV(ref.e25V, tempC);
   return ref.e25V + ref.coeffVPerK * (tempC - 25);
 }
 
@@ -203,7 +217,7 @@ export function referenceRange(reference: ReferenceElectrode | string): Referenc
   if (ref.table && ref.table.length >= 2) {
     return { minC: ref.table[0].tempC, maxC: ref.table[ref.table.length - 1].tempC, source: `${ref.source} (maker's table)` };
   }
-  const law = LAWS.get(ref.id) ?? UNKNOWN;
+  const law = lawOf(ref) ?? UNKNOWN;
   return { minC: law.minC, maxC: Math.min(law.maxC, law.usableMaxC ?? Infinity), source: law.rangeSource };
 }
 
@@ -213,7 +227,7 @@ export function referenceRange(reference: ReferenceElectrode | string): Referenc
  *   electrode's usable temperature (calomel above about 70 °C)
  */
 export function referenceStatus(ref: ReferenceElectrode, tempC: number): 'ok' | 'extrapolated' | 'unusable' {
-  const usableMaxC = ref.table ? undefined : LAWS.get(ref.id)?.usableMaxC;
+  const usableMaxC = ref.table ? undefined : lawOf(ref)?.usableMaxC;
   if (usableMaxC !== undefined && tempC > usableMaxC) return 'unusable';
   const { minC, maxC } = referenceRange(ref);
   return tempC < minC - 1e-9 || tempC > maxC + 1e-9 ? 'extrapolated' : 'ok';

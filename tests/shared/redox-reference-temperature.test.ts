@@ -108,3 +108,16 @@ describe('a probe maker\'s table', () => {
     expect(() => referencePotentialV(bad, 30)).toThrow(/table temperatures must rise/);
   });
 });
+
+describe('a probe with its own coefficient', () => {
+  it('when a 3 M KCl probe carries a hand-entered coefficient, then it is a straight line, marked extrapolated away from 25 °C', () => {
+    const own = { ...referenceById('agcl-3m'), e25V: 0.2135, coeffVPerK: 0 };
+    expect(referencePotentialV(own, 10)).toBe(0.2135);
+    expect(referenceStatus(own, 10)).toBe('extrapolated');
+  });
+
+  it('when a 3 M KCl probe was stored with the earlier -0.75 mV/K default, then it still follows Bates & Bower', () => {
+    const stored = { ...referenceById('agcl-3m'), coeffVPerK: -0.00075 };
+    expect(referencePotentialV(stored, 85)).toBeCloseTo(referencePotentialV(referenceById('agcl-3m'), 85), 12);
+  });
+});

@@ -5,17 +5,18 @@ import {
 } from '../../../../shared/schemas/probe-checks.ts';
 import { requireRole, requireSignIn } from '../../middleware/auth.ts';
 import { body, params, queryParams } from '../../middleware/validate.ts';
+import type { Bus } from '../../realtime/bus.ts';
 import { probeChecksService } from './probe-checks.service.ts';
 
 /** Probe checks, due dates and the replacement log: everyone reads; metallurgists and admins record. */
-export function probeChecksRouter(): Router {
+export function probeChecksRouter(bus?: Bus): Router {
   const r = Router();
   const write = requireRole('metallurgist', 'admin');
   r.get('/', requireSignIn, async (req, res) => {
     res.json({ checks: await probeChecksService.list(queryParams(probeChecksQuerySchema, req)) });
   });
   r.post('/', write, async (req, res) => {
-    res.status(201).json({ check: await probeChecksService.record(body(probeCheckSchema, req), req.user!.id) });
+    res.status(201).json({ check: await probeChecksService.record(body(probeCheckSchema, req), req.user!.id, bus) });
   });
   r.get('/schedule', requireSignIn, async (_req, res) => {
     res.json({ probes: await probeChecksService.due() });
@@ -30,7 +31,7 @@ export function probeChecksRouter(): Router {
     res.json({ replacements: await probeChecksService.replacements(queryParams(probeChecksQuerySchema, req)) });
   });
   r.post('/replacements', write, async (req, res) => {
-    res.status(201).json({ replacement: await probeChecksService.replace(body(probeReplacementSchema, req), req.user!.id) });
+    res.status(201).json({ replacement: await probeChecksService.replace(body(probeReplacementSchema, req), req.user!.id, bus) });
   });
   return r;
 }

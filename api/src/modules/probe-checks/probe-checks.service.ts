@@ -5,11 +5,18 @@ import type {
 import { FUTURE_SKEW_MS } from '../../../../shared/schemas/workbench.ts';
 import { Probe } from '../../db/models.ts';
 import { AppError } from '../../lib/app-error.ts';
+import { logger } from '../../lib/logger.ts';
+import type { Bus } from '../../realtime/bus.ts';
 import { writeAudit } from '../audit.repository.ts';
 import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { probeChecksRepository as repo, type ProbeFacts } from './probe-checks.repository.ts';
 
 const DAY_MS = 86_400_000;
+
+/** A check or a replacement changes whether the probe's next readings are marked suspect. */
+async function announce(bus: Bus | undefined, probeId: number): Promise<void> {
+  await bus?.invalidateProbeCache().catch((err: Error) => logger.warn({ err: err.message, probeId }, 'could not announce the probe check'));
+}
 
 async function requireProbe(id: number): Promise<ProbeFacts> {
   const [p] = await repo.probes({ id });
@@ -37,7 +44,7 @@ export function dueOf(p: ProbeFacts, intervalDays: number, h: { last?: { at: Dat
 }
 
 export const probeChecksService = {
-  async record(input: ProbeCheckInput, userId: number): Promise<ProbeCheckRow> {
+  async record(input: ProbeCheckInput, userId: number, bus?: Bus): Promise<ProbeCheckRow> {
     const p = await requireProbe(input.probeId);
     const checkedAt = notFuture(input.checkedAt, 'The check time');
     const toleranceMv = input.toleranceMv ?? p.toleranceMv;
@@ -56,6 +63,7 @@ export const probeChecksService = {
       await writeAudit({ userId, action: 'probe.check', entity: 'probe', entityId: p.id, after: { checkId: newId, ...input, toleranceMv, ...result } }, tx);
       return newId;
     });
+    await announce(bus, p.id);
     return (await repo.checks({ ids: [id], limit: 1 }))[0];
   },
 
@@ -87,7 +95,7 @@ export const probeChecksService = {
     });
   },
 
-  async replace(input: ProbeReplacementInput, userId: number): Promise<ProbeReplacementRow> {
+  async replace(input: ProbeReplacementInput, userId: number, bus?: Bus): Promise<ProbeReplacementRow> {
     const p = await requireProbe(input.probeId);
     const replacedAt = notFuture(input.replacedAt, 'The replacement time');
     await Probe.sequelize!.transaction(async (tx) => {
@@ -96,6 +104,7 @@ export const probeChecksService = {
       }, tx);
       await writeAudit({ userId, action: 'probe.replacement', entity: 'probe', entityId: p.id, after: { replacementId: id, ...input }, reason: input.reason }, tx);
     });
+    await announce(bus, p.id);
     return (await repo.replacements({ probeId: p.id, limit: 1 }))[0];
   },
 

@@ -1,4 +1,4 @@
-import { orpToRatio } from '../../../../shared/redox/index.ts';
+import { orpToRatio, type ReadingFlag } from '../../../../shared/redox/index.ts';
 import { MAX_FUTURE_SKEW_MS, type ConvertedReading } from '../../../../shared/schemas/readings.ts';
 import { decodeMessage, type Decoded, type DecodedReading, type Rejection } from './decode.ts';
 import type { ProbeLookup } from './probe-cache.ts';
@@ -11,6 +11,11 @@ export type PipelineOptions = { receivedAtMs: number; retentionDays: number };
 export type PipelineResult = { readings: ConvertedReading[]; rejections: Rejection[] };
 
 const DAY_MS = 86_400_000;
+
+/** A failed probe check outranks an extrapolated reference but not a ratio out of range or an unusable reference. */
+function flagOf(chemistry: ReadingFlag, suspect: boolean): ReadingFlag {
+  return suspect && (chemistry === 'ok' || chemistry === 'reference-extrapolated') ? 'probe-suspect' : chemistry;
+}
 
 /**
  * Checks one decoded reading against the plant (site, probe ownership, calibration) and the
@@ -40,7 +45,7 @@ export function convertReading(r: DecodedReading, lookup: ProbeLookup, opts: Pip
     return {
       probeId: probe.probeId, tankId: probe.tankId, probeTag: probe.probeTag, siteTag: probe.siteTag,
       tsMs, seq: r.seq, orpMv: r.orpMv, tempC: r.tempC,
-      ehV: out.ehV, ratio: out.ratio, ferricFraction: out.ferricFraction, flag: out.flag,
+      ehV: out.ehV, ratio: out.ratio, ferricFraction: out.ferricFraction, flag: flagOf(out.flag, probe.suspect),
       calibrationVersion: cal.version, receivedAtMs: opts.receivedAtMs,
     };
   } catch (err) {

@@ -9,6 +9,8 @@ export type ProbeEntry = {
   tankId: number;
   siteTag: string;
   reference: ReferenceElectrode;
+  /** The probe failed its last check and has neither passed one nor been replaced since. */
+  suspect: boolean;
   /** The tank's calibration with the highest version; null when the tank has none. */
   calibration: { version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency: number } | null;
 };
@@ -28,7 +30,7 @@ export function buildLookup(rows: ProbeRow[], siteTags: string[]): ProbeLookup {
   const probes = new Map<string, ProbeEntry>();
   for (const r of rows) {
     probes.set(r.probe_tag, {
-      probeId: r.probe_id, probeTag: r.probe_tag, tankId: r.tank_id, siteTag: r.site_tag,
+      probeId: r.probe_id, probeTag: r.probe_tag, tankId: r.tank_id, siteTag: r.site_tag, suspect: Boolean(r.suspect),
       reference: {
         id: r.reference_id, label: r.reference_id, e25V: r.reference_e25_v, coeffVPerK: r.reference_coeff_v_per_k, source: `probe ${r.probe_tag}`,
         ...referenceTableOf(r.reference_table),

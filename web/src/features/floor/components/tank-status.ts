@@ -18,6 +18,8 @@ export type TankStatus = {
   factor: number | null;
   bandMv: BandMv | null;
   outsideRange: boolean;
+  /** The probe failed its last check: its readings are not to be trusted until it passes or is replaced. */
+  probeSuspect: boolean;
   /** Decades outside the band (0 inside or when not live). */
   decadesOut: number;
 };
@@ -32,6 +34,7 @@ export function tankStatus(tank: TankSummary, nowMs: number, server?: ProbeFresh
     factor: uncertaintyFactor(tank.probe, latest?.tempC),
     bandMv: bandAsMv(tank.band, tank.probe, tank.calibration, latest?.tempC),
     outsideRange: latest?.flag === 'outside-range',
+    probeSuspect: latest?.flag === 'probe-suspect',
   };
   if (tank.offline) return { ...base, kind: 'offline', position: null, decadesOut: 0 };
   if (!tank.probe) return { ...base, kind: 'no-probe', position: null, decadesOut: 0 };

@@ -24,6 +24,7 @@ function describe(tank: TankSummary, status: TankStatus): string {
   else if (tank.latest) {
     parts.push(`ratio ${formatRatio(tank.latest.ratio)}`);
     if (status.position) parts.push(status.position === 'in' ? 'in band' : `${status.position} band`);
+    if (status.probeSuspect) parts.push('probe suspect: failed its last check');
     if (status.kind === 'stale' && status.freshness.ageS != null) parts.push(`stale, last reading ${formatAge(status.freshness.ageS)}`);
   }
   return `${parts.join(', ')}. Open tank page.`;
@@ -100,6 +101,11 @@ export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: T
               {status.outsideRange && (
                 <span className="ml-2 font-semibold text-attention-3-ink">
                   <span aria-hidden="true">◆ </span>Outside calibrated range
+                </span>
+              )}
+              {status.probeSuspect && (
+                <span className="ml-2 font-semibold text-attention-2-ink" data-testid="tile-suspect">
+                  <span aria-hidden="true">▲ </span>Probe suspect
                 </span>
               )}
             </div>

@@ -86,6 +86,12 @@ export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHr
             <span aria-hidden="true">◆ </span>Outside calibrated range: the ratio is clamped; check the probe.
           </p>
         )}
+        {latest?.flag === 'probe-suspect' && (
+          <p className="text-sm font-semibold text-attention-2-ink" data-testid="probe-suspect">
+            <span aria-hidden="true">▲ </span>Probe suspect: it failed its last check against a standard solution. Its readings are marked until it
+            passes a check or is replaced.
+          </p>
+        )}
         {latest?.flag === 'reference-extrapolated' && (
           <p className="text-sm font-semibold text-attention-3-ink" data-testid="reference-flag">
             <span aria-hidden="true">◆ </span>Reference electrode extrapolated: {formatTempC(latest.tempC)} °C is outside the temperatures its
