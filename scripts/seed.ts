@@ -33,7 +33,7 @@ export async function seedDemo(databaseUrl: string, simDevicePassword: string, o
       const site = await Site.create(DEMO_SITE, { transaction });
       await Device.create({ siteId: site.id, username: DEMO_DEVICE.username, passwordHash: await bcrypt.hash(simDevicePassword, BCRYPT_COST) }, { transaction });
       for (const [ci, c] of DEMO_CIRCUITS.entries()) {
-        const circuit = await Circuit.create({ siteId: site.id, tag: c.tag, name: c.name, position: ci }, { transaction });
+        const circuit = await Circuit.create({ siteId: site.id, tag: c.tag, name: c.name, position: ci, process: c.process }, { transaction });
         for (const [ti, t] of c.tanks.entries()) {
           const tank = await Tank.create({
             circuitId: circuit.id, tag: t.tag, name: t.name, position: ti, volumeM3: t.volumeM3,

@@ -4,6 +4,7 @@
  *   kg oxidant = kmol Fe²⁺ · (mol oxidant per mol Fe²⁺) · M_oxidant / utilisation
  */
 import { requireInRange, requireOneOf, requirePositive } from './guards';
+import { GAS_CONSTANT_J_PER_MOL_K, KELVIN_OFFSET } from './constants';
 import { ferricFractionOf } from './nernst';
 
 /** Molar mass of iron, g/mol (IUPAC standard atomic weight). */
@@ -81,4 +82,67 @@ export function oxidantDemand(input: {
     throw new RangeError(`utilisation must be a finite number in (0, 1] large enough for a finite dose (got ${utilisation})`);
   }
   return { fe2ToOxidiseKmol, oxidantKg };
+}
+
+/** A form in which an oxidant is handled on site. */
+export type OxidantForm = {
+  id: string;
+  oxidant: OxidantId;
+  label: string;
+  /** Mass fraction of the oxidant in what is handled (1 for pure oxygen, 0.2095 by volume for air: see kind). */
+  massFraction: number;
+  kind: 'liquid' | 'gas';
+  /** Density of the solution, kg/L (liquids only). */
+  densityKgPerL?: number;
+  /** Mole fraction of O₂ in the gas (gases only). */
+  o2MoleFraction?: number;
+  source: string;
+};
+
+// Densities of H₂O₂ solutions at 20 °C; the O₂ content of dry air. Pure MnO₂ ore grades vary too
+// much to tabulate: the advisor gives its mass only.
+export const OXIDANT_FORMS: OxidantForm[] = [
+  { id: 'h2o2-35', oxidant: 'h2o2', label: 'H₂O₂ 35 % w/w', massFraction: 0.35, kind: 'liquid', densityKgPerL: 1.132,
+    source: 'density 1.132 kg/L at 20 °C (CRC Handbook of Chemistry and Physics, concentrative properties of aqueous solutions)' },
+  { id: 'h2o2-50', oxidant: 'h2o2', label: 'H₂O₂ 50 % w/w', massFraction: 0.5, kind: 'liquid', densityKgPerL: 1.196,
+    source: 'density 1.196 kg/L at 20 °C (CRC Handbook of Chemistry and Physics, concentrative properties of aqueous solutions)' },
+  { id: 'h2o2-70', oxidant: 'h2o2', label: 'H₂O₂ 70 % w/w', massFraction: 0.7, kind: 'liquid', densityKgPerL: 1.29,
+    source: 'density 1.29 kg/L at 20 °C (CRC Handbook of Chemistry and Physics, concentrative properties of aqueous solutions)' },
+  { id: 'air', oxidant: 'o2', label: 'Air', massFraction: 1, kind: 'gas', o2MoleFraction: 0.2095,
+    source: 'O₂ is 20.95 % by volume of dry air (U.S. Standard Atmosphere, 1976)' },
+  { id: 'o2', oxidant: 'o2', label: 'Oxygen (pure)', massFraction: 1, kind: 'gas', o2MoleFraction: 1, source: 'pure O₂' },
+];
+
+/** Molar volume of an ideal gas at normal conditions (0 °C, 101.325 kPa), m³/kmol = R·273.15/101325 × 1000. */
+export const MOLAR_VOLUME_NORMAL_M3_PER_KMOL = (GAS_CONSTANT_J_PER_MOL_K * KELVIN_OFFSET) / 101.325;
+
+/**
+ * What is handled for a dose of pure oxidant: litres of a solution, or normal cubic metres of gas.
+ * @param input.oxidantKg pure oxidant to deliver, kg (already divided by utilisation or transfer efficiency)
+ * @param input.form id from OXIDANT_FORMS, for the same oxidant
+ * @returns litres (liquids) or Nm³ at 0 °C and 101.325 kPa (gases), with the form used
+ */
+export function oxidantQuantity(input: { oxidantKg: number; oxidant: OxidantId; form: string }): { amount: number; unit: 'L' | 'Nm³'; form: OxidantForm } {
+  const kg = requireInRange('oxidantKg', input.oxidantKg, 0, Number.MAX_VALUE, 'kg');
+  const form = OXIDANT_FORMS.find((f) => f.id === input.form && f.oxidant === input.oxidant);
+  if (!form) {
+    const ids = OXIDANT_FORMS.filter((f) => f.oxidant === input.oxidant).map((f) => `'${f.id}'`).join(', ') || 'none';
+    throw new RangeError(`form must be one of ${ids} for ${input.oxidant} (got ${JSON.stringify(input.form)})`);
+  }
+  if (form.kind === 'liquid') return { amount: kg / form.massFraction / form.densityKgPerL!, unit: 'L', form };
+  const o2 = OXIDANTS.find((o) => o.id === 'o2')!;
+  const kmolO2 = kg / o2.molarMassGPerMol;
+  return { amount: (kmolO2 * MOLAR_VOLUME_NORMAL_M3_PER_KMOL) / form.o2MoleFraction!, unit: 'Nm³', form };
+}
+
+/**
+ * The dose over the probe's uncertainty: the present ratio may be off by the tolerance either way
+ * (ratio ×/÷ factor), so the dose lies between the doses for ratioNow·factor and ratioNow/factor.
+ * @param input as oxidantDemand, plus uncertaintyFactor (≥ 1) from ratioUncertainty
+ * @returns the central dose and the low/high doses, kg (0 where that end is already at target)
+ */
+export function oxidantDemandRange(input: Parameters<typeof oxidantDemand>[0] & { uncertaintyFactor: number }): { lowKg: number; centralKg: number; highKg: number } {
+  const factor = requireInRange('uncertaintyFactor', input.uncertaintyFactor, 1, 1e6);
+  const at = (ratioNow: number) => oxidantDemand({ ...input, ratioNow }).oxidantKg;
+  return { lowKg: at(input.ratioNow * factor), centralKg: at(input.ratioNow), highKg: at(input.ratioNow / factor) };
 }

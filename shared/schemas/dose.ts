@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { OXIDANTS, type OxidantId, type ReadingFlag } from '../redox/index.ts';
+import type { CircuitProcess } from './plant.ts';
 
 /** What the Dose advisor needs from the plant; the arithmetic itself runs in the browser with shared/redox. */
 export type DoseInputs = {
@@ -13,6 +14,8 @@ export type DoseInputs = {
   latestAssay: { id: number; sampledAt: string; feTotalGPerL: number } | null;
   /** Ratio ×/÷ this factor is the probe tolerance expressed on the ratio (null when unknown). */
   uncertaintyFactor: number | null;
+  /** What the tank's circuit runs: the default oxidant follows it. */
+  circuitProcess: CircuitProcess;
 };
 
 const oxidantIds = OXIDANTS.map((o) => o.id) as [OxidantId, ...OxidantId[]];

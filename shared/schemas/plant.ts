@@ -38,7 +38,10 @@ export type TankSummary = {
   latest: TankLive | null;
 };
 
-export type CircuitSummary = { id: number; tag: string; name: string; position: number; tanks: TankSummary[] };
+/** What a circuit runs: bioleach circuits are oxidised with air or oxygen (peroxide harms the culture). */
+export type CircuitProcess = 'bioleach' | 'ferric-leach' | 'other';
+
+export type CircuitSummary = { id: number; tag: string; name: string; position: number; process: CircuitProcess; tanks: TankSummary[] };
 export type SiteSummary = { id: number; tag: string; name: string; timeZone: string; circuits: CircuitSummary[] };
 export type PlantResponse = { sites: SiteSummary[]; serverTime: string };
 

@@ -4,6 +4,7 @@ import {
 } from 'sequelize';
 import type { Role } from '../../../shared/schemas/auth.ts';
 import { initWorkbenchModels } from './workbench-models.ts';
+import type { CircuitProcess } from '../../../shared/schemas/plant.ts';
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>;
@@ -32,6 +33,8 @@ export class Circuit extends Model<InferAttributes<Circuit>, InferCreationAttrib
   declare tag: string;
   declare name: string;
   declare position: number;
+  /** What the circuit runs; the Dose advisor's default oxidant follows it. */
+  declare process: CreationOptional<CircuitProcess>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -128,6 +131,7 @@ export function initModels(sequelize: Sequelize): void {
     tag: { type: DataTypes.STRING(40), allowNull: false },
     name: { type: DataTypes.STRING(120), allowNull: false },
     position: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    process: { type: DataTypes.ENUM('bioleach', 'ferric-leach', 'other'), allowNull: false, defaultValue: 'other' },
     ...stamps,
   }, { sequelize, tableName: 'circuits' });
   Tank.init({

@@ -3,7 +3,7 @@ import mqtt, { type MqttClient } from 'mqtt';
 import { brokerHealthSchema, ingestHealthSchema, type BrokerHealth, type IngestHealth } from '../../../shared/schemas/ingest-health.ts';
 import {
   BROKER_HEALTH_TOPIC, CACHE_INVALIDATE_TOPIC, INGEST_HEALTH_TOPIC, LATEST_FILTER, SIM_COMMAND_TOPIC, SIM_STATE_TOPIC,
-  latestMessageSchema, parseInternal,
+  latestMessageSchema, latestTopic, parseInternal,
 } from '../../../shared/schemas/internal-topics.ts';
 import type { TankLive } from '../../../shared/schemas/readings.ts';
 import { simStateSchema, type ActiveFault, type SimCommand } from '../../../shared/schemas/simulator.ts';
@@ -47,6 +47,11 @@ export class Bus extends EventEmitter<BusEvents> {
 
   async simCommand(cmd: SimCommand): Promise<void> {
     await this.client.publishAsync(SIM_COMMAND_TOPIC, JSON.stringify(cmd), { qos: 1 });
+  }
+
+  /** Pushes readings to every API node's screens, as the ingest worker does after a commit. */
+  async publishLatest(siteTag: string, readings: TankLive[]): Promise<void> {
+    await this.client.publishAsync(latestTopic(siteTag), JSON.stringify({ readings }), { qos: 0 });
   }
 
   async invalidateProbeCache(): Promise<void> {

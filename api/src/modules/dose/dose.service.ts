@@ -29,7 +29,7 @@ export const doseService = {
       bandMiddle: Math.sqrt(t.band.low * t.band.high),
       latest: t.latest && { ratio: t.latest.ratio, ts: t.latest.ts, tempC: t.latest.tempC, flag: t.latest.flag },
       latestAssay: assay ? { id: assay.id, sampledAt: assay.sampledAt.toISOString(), feTotalGPerL: assay.feTotalGPerL } : null,
-      uncertaintyFactor,
+      uncertaintyFactor, circuitProcess: found.circuit.process,
     };
   },
 };

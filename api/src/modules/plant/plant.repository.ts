@@ -58,7 +58,7 @@ export const plantRepository = {
     return sites.map((s) => ({
       id: s.id, tag: s.tag, name: s.name, timeZone: s.timeZone,
       circuits: ((s as unknown as { Circuits: Circuit[] }).Circuits ?? []).map((c) => ({
-        id: c.id, tag: c.tag, name: c.name, position: c.position,
+        id: c.id, tag: c.tag, name: c.name, position: c.position, process: c.process,
         tanks: ((c as unknown as { Tanks: Tank[] }).Tanks ?? []).map((t): TankSummary => {
           const probe = (t as unknown as { Probes: Probe[] }).Probes?.[0];
           return {

@@ -1,5 +1,7 @@
 import { QueryTypes, type InferCreationAttributes, type Transaction } from 'sequelize';
 import type { ProbeCheckRow, ProbeReplacementRow } from '../../../../shared/schemas/probe-checks.ts';
+import type { ReadingFlag } from '../../../../shared/redox/index.ts';
+import type { TankLive } from '../../../../shared/schemas/readings.ts';
 import { Probe } from '../../db/models.ts';
 import { ProbeCheckRowModel, ProbeReplacementRowModel, ProbeScheduleRow } from '../../db/workbench-models.ts';
 
@@ -58,6 +60,35 @@ export const probeChecksRepository = {
       get(r.probe_id).lastReplacement = r.at;
     }
     return out;
+  },
+
+  /**
+   * Marks the probe's newest stored reading suspect (unless something worse is already flagged)
+   * and returns it as the screens show it, so a failed check shows at once, not one reading later.
+   */
+  async markLatestSuspect(probeId: number): Promise<{ siteTag: string; reading: TankLive } | null> {
+    await Probe.sequelize!.query(
+      `UPDATE readings SET flag = 'probe-suspect'
+        WHERE probe_id = :probeId AND flag IN ('ok', 'reference-extrapolated')
+          AND ts = (SELECT newest FROM (SELECT MAX(ts) AS newest FROM readings WHERE probe_id = :probeId) AS m)`,
+      { replacements: { probeId } },
+    );
+    const [r] = await q<{
+      tank_id: number; tag: string; site_tag: string; ts: Date; orp_mv: number; temp_c: number; eh_v: number; ratio: number;
+      ferric_fraction: number; flag: ReadingFlag; calibration_version: number;
+    }>(
+      `SELECT p.tank_id, p.tag, s.tag AS site_tag, r.ts, r.orp_mv, r.temp_c, r.eh_v, r.ratio, r.ferric_fraction, r.flag, r.calibration_version
+         FROM readings r JOIN probes p ON p.id = r.probe_id JOIN tanks t ON t.id = p.tank_id JOIN circuits c ON c.id = t.circuit_id
+         JOIN sites s ON s.id = c.site_id
+        WHERE r.probe_id = :probeId ORDER BY r.ts DESC LIMIT 1`, { probeId },
+    );
+    return r ? {
+      siteTag: r.site_tag,
+      reading: {
+        tankId: r.tank_id, probeId, probeTag: r.tag, ts: r.ts.toISOString(), orpMv: r.orp_mv, tempC: r.temp_c, ehV: r.eh_v, ratio: r.ratio,
+        ferricFraction: r.ferric_fraction, flag: r.flag, calibrationVersion: r.calibration_version,
+      },
+    } : null;
   },
 
   async schedules(): Promise<Map<number, number>> {

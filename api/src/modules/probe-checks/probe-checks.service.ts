@@ -64,6 +64,10 @@ export const probeChecksService = {
       return newId;
     });
     await announce(bus, p.id);
+    if (!result.pass) {
+      const latest = await repo.markLatestSuspect(p.id);
+      if (latest) await bus?.publishLatest(latest.siteTag, [latest.reading]).catch((err: Error) => logger.warn({ err: err.message, probeId: p.id }, 'could not push the suspect mark'));
+    }
     return (await repo.checks({ ids: [id], limit: 1 }))[0];
   },
 
