@@ -75,6 +75,8 @@ export class Probe extends Model<InferAttributes<Probe>, InferCreationAttributes
   declare referenceId: string;
   declare referenceE25V: number;
   declare referenceCoeffVPerK: number;
+  /** The maker's table of reference potential against temperature (JSON text), when entered. */
+  declare referenceTable: CreationOptional<string | null>;
   declare toleranceMv: number;
   declare intervalS: number;
   declare installedAt: Date;
@@ -163,6 +165,7 @@ export function initModels(sequelize: Sequelize): void {
     referenceId: { type: DataTypes.STRING(20), allowNull: false },
     referenceE25V: { type: DataTypes.DOUBLE, allowNull: false, field: 'reference_e25_v' },
     referenceCoeffVPerK: { type: DataTypes.DOUBLE, allowNull: false },
+    referenceTable: { type: DataTypes.TEXT, allowNull: true },
     toleranceMv: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 10 },
     intervalS: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 5 },
     installedAt: { type: DataTypes.DATE(3), allowNull: false },

@@ -5,6 +5,7 @@ import { rawPool } from '../../db/database.ts';
 import { Calibration, Probe, Tank } from '../../db/models.ts';
 import type { Pool } from '../../db/pool.ts';
 import { CalibrationFitRow } from '../../db/workbench-models.ts';
+import { referenceTableOf } from '../readings/probe-cache.ts';
 
 type VersionRow = {
   version: number; formal_potential_v: number; formal_coeff_v_per_k: number; accepted_slope: number; valid_from: Date; reason: string;
@@ -47,7 +48,10 @@ export const calibrationRepository = {
     const rows = await Probe.findAll({ where: { tankId }, order: [['active', 'DESC'], ['installedAt', 'DESC']] });
     return rows.map((p) => ({
       id: p.id, tag: p.tag, active: p.active, referenceId: p.referenceId, toleranceMv: p.toleranceMv,
-      reference: { id: p.referenceId, label: p.referenceId, e25V: p.referenceE25V, coeffVPerK: p.referenceCoeffVPerK, source: `probe ${p.tag}` },
+      reference: {
+        id: p.referenceId, label: p.referenceId, e25V: p.referenceE25V, coeffVPerK: p.referenceCoeffVPerK, source: `probe ${p.tag}`,
+        ...referenceTableOf(p.referenceTable),
+      },
     }));
   },
 

@@ -7,7 +7,7 @@ import { ProbeCheckRowModel, ProbeReplacementRowModel, ProbeScheduleRow } from '
 
 export type ProbeFacts = {
   id: number; tag: string; tankId: number; tankTag: string; installedAt: Date; active: boolean;
-  referenceId: string; referenceE25V: number; referenceCoeffVPerK: number; toleranceMv: number;
+  referenceId: string; referenceE25V: number; referenceCoeffVPerK: number; referenceTable: string | null; toleranceMv: number;
 };
 
 const q = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
@@ -22,7 +22,8 @@ export const probeChecksRepository = {
     return rows.map((r) => ({
       id: r.id as number, tag: r.tag as string, tankId: r.tank_id as number, tankTag: r.tank_tag as string, installedAt: r.installed_at as Date,
       active: Boolean(r.active), referenceId: r.reference_id as string, referenceE25V: r.reference_e25_v as number,
-      referenceCoeffVPerK: r.reference_coeff_v_per_k as number, toleranceMv: r.tolerance_mv as number,
+      referenceCoeffVPerK: r.reference_coeff_v_per_k as number, referenceTable: (r.reference_table as string | null) ?? null,
+      toleranceMv: r.tolerance_mv as number,
     }));
   },
 

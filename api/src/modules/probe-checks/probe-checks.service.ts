@@ -8,6 +8,7 @@ import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { writeAudit } from '../audit.repository.ts';
+import { referenceTableOf } from '../readings/probe-cache.ts';
 import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { probeChecksRepository as repo, type ProbeFacts } from './probe-checks.repository.ts';
 
@@ -48,7 +49,10 @@ export const probeChecksService = {
     const p = await requireProbe(input.probeId);
     const checkedAt = notFuture(input.checkedAt, 'The check time');
     const toleranceMv = input.toleranceMv ?? p.toleranceMv;
-    const reference = { id: p.referenceId, label: p.referenceId, e25V: p.referenceE25V, coeffVPerK: p.referenceCoeffVPerK, source: `probe ${p.tag}` };
+    const reference = {
+      id: p.referenceId, label: p.referenceId, e25V: p.referenceE25V, coeffVPerK: p.referenceCoeffVPerK, source: `probe ${p.tag}`,
+      ...referenceTableOf(p.referenceTable),
+    };
     let result: ReturnType<typeof probeCheck>;
     try {
       result = probeCheck({ standard: input.standard, tempC: input.tempC, reference, readingMv: input.readingMv, toleranceMv });

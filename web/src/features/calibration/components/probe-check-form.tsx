@@ -59,7 +59,14 @@ export function ProbeCheckForm({ probe, toleranceMv, timeZone }: { probe: Probe;
           <strong>{preview.pass ? 'Pass' : '✕ Fail: clean, refill or replace before trusting this probe'}</strong>
         </p>
       ) : null}
-      <p className="text-xs text-ink-muted">ZoBell's solution contains cyanide complexes: never acidify it. Follow the safety data sheet.</p>
+      {v.standard === 'light' ? (
+        <p className="text-xs text-ink-muted" data-testid="light-caution">
+          Light's solution is made up in about 1 M sulfuric acid: wear eye and skin protection, neutralise spills, and never mix it with ZoBell's
+          solution or other cyanide-bearing waste (acid releases hydrogen cyanide). Follow the safety data sheet and site procedures.
+        </p>
+      ) : (
+        <p className="text-xs text-ink-muted">ZoBell's solution contains cyanide complexes: never acidify it. Follow the safety data sheet.</p>
+      )}
       <div className="flex justify-end">
         <Button type="submit" variant="primary" disabled={record.isPending}>{record.isPending ? 'Recording…' : 'Record check'}</Button>
       </div>

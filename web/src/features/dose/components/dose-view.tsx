@@ -8,7 +8,8 @@ import { Quantity } from '../../../components/ui/quantity';
 import { issuesToFieldErrors } from '../../../lib/form';
 import { useDoseInputs } from '../api/get-dose-inputs';
 import { DOSE_ASSUMPTIONS, adviseDose } from '../utils/dose-steps';
-import { DoseFormFields, initialDoseForm, type DoseFormText } from './dose-form';
+import { DoseFormFields, inBand, initialDoseForm, suggestedTarget, type DoseFormText } from './dose-form';
+import { DoseRange } from './dose-range';
 import { DoseStepsView } from './dose-steps-view';
 import { OxidantHazards } from './oxidant-hazards';
 
@@ -28,14 +29,24 @@ function Advisor({ tankId, timeZone }: { tankId: number; timeZone: string }) {
   });
   const errors = parsed.success ? {} : issuesToFieldErrors(parsed.error.issues);
   const advice = parsed.success ? adviseDose(parsed.data) : null;
+  const noTargetInBand = v.ratioTarget.trim() === '' && inBand(inputs.data, num(v.ratioNow));
+  const askTarget = () => setValues({ ...v, ratioTarget: suggestedTarget(inputs.data) });
 
   return (
     <div className="grid gap-4 xl:grid-cols-2">
       <Panel title={`Inputs for ${inputs.data.tankTag}`}>
-        <DoseFormFields inputs={inputs.data} values={v} errors={errors} timeZone={timeZone} onChange={(k, val) => setValues({ ...v, [k]: val })} />
+        <DoseFormFields inputs={inputs.data} values={v} errors={errors} timeZone={timeZone} onChange={(k, val) => setValues((cur) => ({ ...(cur ?? v), [k]: val }))} />
       </Panel>
       <Panel title="Advice">
-        {!advice ? (
+        {noTargetInBand ? (
+          <div className="flex flex-col gap-2" data-testid="dose-advice">
+            <p className="text-lg font-semibold" data-testid="dose-in-band">In band, no dose needed.</p>
+            <p className="text-sm text-ink-muted">
+              The present ratio lies inside the band {inputs.data.band.low}–{inputs.data.band.high}. Enter a target ratio to work out a dose anyway.
+            </p>
+            <div><button type="button" className="text-info-ink underline" onClick={askTarget}>Dose to {suggestedTarget(inputs.data)} anyway</button></div>
+          </div>
+        ) : !advice ? (
           <p className="text-ink-muted">Complete the inputs to see the dose.</p>
         ) : (
           <div className="flex flex-col gap-4" data-testid="dose-advice">
@@ -47,10 +58,11 @@ function Advisor({ tankId, timeZone }: { tankId: number; timeZone: string }) {
                 {advice.holdKgPerH != null && <>, then about <Quantity value={advice.holdKgPerH.toFixed(1)} unit="kg/h" /> to hold it against the feed</>}.
               </p>
             )}
+            {parsed.success && <DoseRange form={parsed.data} handledAs={v.form} uncertaintyFactor={inputs.data.uncertaintyFactor} />}
             <DoseStepsView title="Reaching the target" steps={advice.steps} />
             {advice.holdSteps.length > 0 && <DoseStepsView title="Holding it against the feed" steps={advice.holdSteps} />}
             <p className="text-sm text-ink-muted">
-              Masses are of the pure oxidant. For a solution or an ore, divide by its mass fraction (e.g. ÷ 0.50 for 50 % peroxide). Stoichiometry: {advice.oxidant.source}.
+              Masses are of the pure oxidant; the quantity handled is worked out above where a form is chosen. For an ore, divide by its mass fraction. Stoichiometry: {advice.oxidant.source}.
             </p>
             <ul className="list-disc pl-5 text-sm text-ink-muted">{DOSE_ASSUMPTIONS.map((a) => <li key={a}>{a}</li>)}</ul>
             <OxidantHazards oxidant={advice.oxidant.id} label={advice.oxidant.label} />
