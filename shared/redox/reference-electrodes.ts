@@ -62,7 +62,7 @@ export const REFERENCE_ELECTRODES: ReferenceElectrode[] = [
     // No sourced coefficient; -0.6 mV/K is from memory (close to the AgCl/Ag
     // standard electrode's own coefficient) and must be confirmed before relying on it.
     coeffVPerK: -0.0006,
-    source: 'Published tables: 0.236 V; -0.6 mV/K from memory, unverified — enter the probe maker\'s value where known',
+    source: 'Published tables: 0.236 V; the temperature coefficient is unconfirmed — enter the probe maker\'s value where known',
   },
   {
     id: 'sce',

@@ -39,7 +39,7 @@ describe('e-mail escalation', () => {
     expect(mail.text).toContain('A1 · Bioleach 1 (A)');
     expect(mail.text).toContain('5.0 at activation; band 8.0–25');
     expect(mail.text).toMatch(/Since:\s+2026-12-01 18:00 Australia\/Perth \(10:00 UTC\); unacknowledged for 5 min/);
-    expect(mail.text).toContain('Test engineer (On call), this step');
+    expect(mail.text).toContain('Test engineer (First call), this step');
     expect(mail.text).toContain(`Tank page: ${PUBLIC_URL}/tanks/${t.tanks.A1.id}`);
     expect(mail.text).toContain(`The alarm: ${PUBLIC_URL}/alarm-desk?alarm=${id}`);
     expect(mail.text).toMatch(new RegExp(`Acknowledge as Test engineer: ${PUBLIC_URL}/ack/[\\w-]+\\.[\\w-]+\\.[\\w-]+`));
@@ -58,10 +58,10 @@ describe('e-mail escalation', () => {
     // One mail per person: step 1 to the engineer, step 2 to the supervisor and the backup separately.
     expect(mails.map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)', '(step 2)']);
     expect(mails.slice(1).map((m) => m.envelope.to).sort()).toEqual([['okoro.bright@kestrel.example'], ['t-supervisor@test.example']]);
-    expect(mails[1].text).toMatch(/Test engineer \(On call\), step 1/);
+    expect(mails[1].text).toMatch(/Test engineer \(First call\), step 1/);
     const notes = await t.sequelize.query<{ comment: string }>("SELECT comment FROM alarm_events WHERE instance_id = ? AND kind = 'escalated' ORDER BY id", { replacements: [id], type: QueryTypes.SELECT });
     expect(notes.map((e) => e.comment)).toEqual([
-      'Escalation step 1: e-mail to Test engineer (On call)',
+      'Escalation step 1: e-mail to Test engineer (First call)',
       'Escalation step 2: e-mail to Test supervisor (Shift supervisor), Okoro Bright (Backup)',
     ]);
     n.close();

@@ -20,6 +20,7 @@ export function ActiveAlarms({ role, timeZone, places, filters, onFilters, selec
   if (!q.data) return <ErrorState title="Alarms could not be loaded" detail={q.error?.message} onRetry={() => q.refetch()} />;
 
   const circuitOf = new Map(places.map((p) => [p.tankId, p.circuitId]));
+  const latest = new Map(places.map((p) => [p.tankId, p.latest]));
   const shown = q.data.alarms
     .filter((a) => (!filters.site || a.siteTag === filters.site) && (!filters.circuit || circuitOf.get(a.tankId) === filters.circuit))
     .filter((a) => (!filters.tank || a.tankId === filters.tank) && (!filters.priority || a.priority === filters.priority) && (!filters.state || a.state === filters.state))
@@ -44,7 +45,7 @@ export function ActiveAlarms({ role, timeZone, places, filters, onFilters, selec
           {q.data.alarms.length === 0 ? 'No open alarms.' : 'No open alarms match these filters.'}
         </p>
       ) : (
-        <AlarmTable alarms={shown} selectedId={selectedId} timeZone={timeZone} canAck={canAck} onSelect={onSelect} onAcknowledge={(id) => ack.mutate({ id })} />
+        <AlarmTable alarms={shown} selectedId={selectedId} timeZone={timeZone} canAck={canAck} onSelect={onSelect} onAcknowledge={(id) => ack.mutate({ id })} latest={latest} />
       )}
       {(ack.error || ackTank.error) && <p role="alert" className="text-sm text-attention-1-ink">{(ack.error ?? ackTank.error)?.message}</p>}
     </div>
