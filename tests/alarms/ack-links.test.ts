@@ -40,13 +40,14 @@ const confirm = (path: string, comment?: string) => request(t.app).post(path).ty
 
 describe('acknowledge links', () => {
   it('when a valid link is opened, then a confirmation page is shown and nothing changes yet; confirming acknowledges as that engineer via e-mail', async () => {
-    const { def, path } = await alarmWithLink('A1');
+    const { id, def, path } = await alarmWithLink('A1');
     const look = await page(path);
     expect(look.status).toBe(200);
     expect(look.headers['content-type']).toMatch(/html/);
     expect(look.text).toContain('Acknowledge this alarm?');
     expect(look.text).toContain('Test engineer');
     expect(look.text).toContain('<form method="post"');
+    expect(look.text).toContain(`href="/alarm-desk?alarm=${id}"`);
     expect((await instancesOf(t.sequelize, def))[0].state).toBe('unacknowledged');
     const done = await confirm(path, 'On my way to the blower house');
     expect(done.status).toBe(200);

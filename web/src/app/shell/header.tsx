@@ -64,7 +64,7 @@ export function Header({ user }: { user: SessionUser }) {
           <UserMenu user={user} />
         </div>
       </div>
-      <ScreensNav user={user} className="hidden flex-wrap px-2 pb-1.5 xl:flex min-[1800px]:hidden" />
+      <ScreensNav user={user} className="hidden flex-wrap px-2 pb-1.5 min-[1280px]:max-[1799px]:flex" />
     </header>
   );
 }

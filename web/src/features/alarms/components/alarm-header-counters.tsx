@@ -12,7 +12,7 @@ export function AlarmHeaderCounters({ deskPath }: { deskPath: string }) {
     <div className="flex items-center gap-1.5">
       <nav aria-label="Alarms by priority" className="flex items-center gap-1.5" data-testid="alarm-counters">
         {([1, 2, 3] as const).map((p) => (
-          <span key={p} className={waiting(p) ? 'pulse-attention rounded-full' : ''} data-priority={p} data-count={count(p)}>
+          <span key={p} className={waiting(p) ? 'pulse-attention rounded-full' : ''} data-priority={p} data-count={count(p)} data-waiting={waiting(p) ? 'true' : 'false'}>
             <PriorityCount priority={p} count={count(p)} to={deskPath} />
           </span>
         ))}
