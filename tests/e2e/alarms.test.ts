@@ -62,6 +62,9 @@ describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser'
         await tile(w.page, tag!).locator('[data-testid="tile-alarm"][data-priority="1"][data-unack="1"]').waitFor({ timeout: 20_000 });
         await headerP1(w.page).and(w.page.locator('[data-waiting="true"]')).waitFor({ timeout: 20_000 });
       }
+      await operator.page.locator(`[data-testid="tank-card"][data-tag="${tag}"] [data-testid="tile-alarm"][data-priority="1"][data-unack="1"]`).waitFor({ timeout: 20_000 });
+      // P1 alarms waiting for acknowledgement, as each header counts them (other tests' alarms may be among them).
+      const waitingBefore = await Promise.all([...watchers, operator].map(async (w) => Number(await headerP1(w.page).getAttribute('data-unack'))));
       // Priority at a glance: the tile's border is the P1 colour of the theme, and thick.
       const p1 = await themeColour(admin.page, '--fs-a1');
       const p2 = await themeColour(admin.page, '--fs-a2');
@@ -86,17 +89,19 @@ describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser'
       expect(events.filter((e) => e.kind === 'acknowledged')).toEqual([expect.objectContaining({ how: 'screen', byName: expect.any(String) })]);
       await operator.page.screenshot({ path: path.join(SHOTS, 'alarm-desk-acknowledged-390.png'), fullPage: true });
 
-      // Every signed-in screen follows: the pill stops waiting, the header counter stops pulsing.
-      for (const w of watchers) {
+      // Every signed-in screen follows: the pill stops waiting, the header counts one P1 fewer waiting.
+      const fewer = (page: Page, before: number) =>
+        expect.poll(async () => Number(await headerP1(page).getAttribute('data-unack')), { timeout: 20_000 }).toBeLessThan(before);
+      for (const [i, w] of watchers.entries()) {
         await tile(w.page, tag!).locator('[data-testid="tile-alarm"][data-unack="0"]').waitFor({ timeout: 20_000 });
-        await headerP1(w.page).and(w.page.locator('[data-waiting="false"]')).waitFor({ timeout: 20_000 });
+        await fewer(w.page, waitingBefore[i]);
       }
       await operator.page.goto(appUrl('/'));
       const opCard = operator.page.locator(`[data-testid="tank-card"][data-tag="${tag}"]`);
       await opCard.locator('[data-testid="tile-alarm"][data-unack="0"]').waitFor({ timeout: 20_000 });
       // Worst first on the phone: the tank with the P1 heads the stack.
       expect(await operator.page.locator('[data-testid="tank-card"]').first().getAttribute('data-priority')).toBe('1');
-      await headerP1(operator.page).and(operator.page.locator('[data-waiting="false"]')).waitFor({ timeout: 20_000 });
+      await fewer(operator.page, waitingBefore[watchers.length]);
       await admin.page.screenshot({ path: path.join(SHOTS, 'alarm-floor-acknowledged-1920.png') });
 
       // A shelve leaves a mark: the tile shows the clock and the time left, and no longer the P1 colour.
@@ -110,7 +115,11 @@ describe.skipIf(!BASE_URL)('Alarms on the Floor and the Alarm desk in a browser'
       await operator.page.screenshot({ path: path.join(SHOTS, 'alarm-floor-shelved-390.png') });
       expect([...watchers.flatMap((w) => w.errors), ...operator.errors]).toEqual([]);
     } finally {
-      if (alarmId) await supervisor.page.request.post(appUrl(`/api/alarms/instances/${alarmId}/unshelve`), { headers, data: {} });
+      // Leave nothing waiting for the next test: unshelve, then acknowledge what comes back.
+      if (alarmId) {
+        await supervisor.page.request.post(appUrl(`/api/alarms/instances/${alarmId}/unshelve`), { headers, data: {} });
+        await supervisor.page.request.post(appUrl(`/api/alarms/instances/${alarmId}/acknowledge`), { headers, data: { comment: 'End of browser test' } });
+      }
       await admin.page.request.post(appUrl('/api/admin/simulator'), { headers, data: { ...fault, action: 'clear' } });
       for (const s of [...watchers, operator]) await s.context.close();
     }
