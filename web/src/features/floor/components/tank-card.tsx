@@ -7,7 +7,7 @@ import { formatRatio } from '../../../lib/format';
 import { useTankAlarm, useTankHeldAlarms } from '../../../lib/tank-alarms';
 import { describe, TileAlarm } from './tank-tile';
 import type { TankStatus } from './tank-status';
-import { tileLook } from './tile-look';
+import { marksText, tileLook } from './tile-look';
 import { TileMarks } from './tile-marks';
 
 /** A tank as one compact card for narrow screens: the same frame, pill, marks and band as its tile. */
@@ -22,7 +22,7 @@ export function TankCard({ tank, status, nowMs, circuitName }: { tank: TankSumma
   return (
     <Link
       to={`/tanks/${tank.id}`}
-      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}`}
+      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}${marksText(marks)}`}
       data-testid="tank-card"
       data-tag={tank.tag}
       data-priority={priority ?? ''}

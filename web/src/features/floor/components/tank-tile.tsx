@@ -9,7 +9,7 @@ import { PriorityPill } from '../../../components/ui/priority-pill';
 import { useTankAlarm, useTankHeldAlarms, type TankAlarmBadge } from '../../../lib/tank-alarms';
 import { formatAge, formatEhV, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
 import type { TankStatus } from './tank-status';
-import { tileLook } from './tile-look';
+import { marksText, tileLook } from './tile-look';
 import { TileMarks } from './tile-marks';
 import { TileSparkline } from './tile-sparkline';
 
@@ -60,7 +60,7 @@ export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: T
   return (
     <Link
       to={`/tanks/${tank.id}`}
-      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}`}
+      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}${marksText(marks)}`}
       data-testid="tank-tile"
       data-tag={tank.tag}
       data-ts={latest?.ts ?? ''}

@@ -28,6 +28,11 @@ export function tileLook(status: TankStatus, alarm: TankAlarmBadge | undefined, 
   return { frame: out ? 'border-2 border-line-strong' : 'border border-line', priority: null, marks };
 }
 
+const MARK_WORDS: Record<TileMark, string> = { shelved: 'an alarm shelved', 'out-of-service': 'an alarm out of service', suppressed: 'alarms suppressed' };
+
+/** The marks in words, for the tile's accessible name ("" when none). */
+export const marksText = (marks: TileMark[]): string => (marks.length ? ` Held: ${marks.map((m) => MARK_WORDS[m]).join(', ')}.` : '');
+
 /** Worst first: sounding priority, then waiting for acknowledgement, then how far out of band, then not live. */
 export function worstFirst(a: { status: TankStatus; alarm?: TankAlarmBadge }, b: { status: TankStatus; alarm?: TankAlarmBadge }): number {
   const p = (x: typeof a) => x.alarm?.priority ?? 4;
