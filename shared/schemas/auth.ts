@@ -32,7 +32,7 @@ export const createUserSchema = z.object({
 });
 export type CreateUserInput = z.infer<typeof createUserSchema>;
 
-/** A role change or disabling someone ends their sessions at once: it needs a reason, kept in the audit trail. */
+/** A role change or disabling someone signs them out at once: it needs a reason, kept in the audit trail. */
 export const updateUserSchema = z
   .object({
     role: roleSchema.optional(),
