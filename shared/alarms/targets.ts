@@ -1,7 +1,7 @@
 /**
  * Alarm-management targets, each with its published source.
- * confidence 'S': seen in the named source; 'M': from memory, unverified — shown to users as
- * "from memory" and never used as a test check value until confirmed.
+ * confidence 'S': seen in the named source; 'M': unverified — shown to users as common practice
+ * (never with an unconfirmed citation) and never used as a test check value until confirmed.
  */
 export type Target = { value: number; source: string; confidence: 'S' | 'M' };
 
@@ -32,7 +32,7 @@ export const ALARM_TARGETS = {
   mixLow: { value: 0.8, source: ISA, confidence: 'M' },
 } as const satisfies Record<string, Target>;
 
-/** "(ISA-18.2, from memory)" or "(EEMUA 191 via published benchmarking)" for labels. */
+/** What a label on screen says: the publication where the value was seen, otherwise "common practice". */
 export function sourceNote(t: Target): string {
-  return t.confidence === 'M' ? `${t.source}, from memory` : t.source;
+  return t.confidence === 'S' ? t.source : 'common practice';
 }

@@ -56,7 +56,13 @@ export type ApplyTemplateInput = z.infer<typeof applyTemplateSchema>;
 
 export const acknowledgeSchema = z.object({ comment: z.string().trim().max(1000).optional() });
 export const commentSchema = z.object({ text: text(1000, 'a comment') });
-export const oosSchema = z.object({ reason });
+/** Out of service always ends: the alarm returns to service on its own when the period runs out. */
+export const MAX_OOS_HOURS = 7 * 24;
+export const oosSchema = z.object({
+  reason,
+  durationH: z.number({ message: 'Choose how long' }).min(0.25, 'At least 15 minutes').max(MAX_OOS_HOURS, 'At most 7 days'),
+});
+export type OosInput = z.infer<typeof oosSchema>;
 /** Returning to service says what was done (e.g. probe cleaned and checked against a standard). */
 export const returnToServiceSchema = z.object({ comment: z.string().trim().min(3, 'Say what was done (at least 3 characters)').max(1000) });
 
@@ -113,7 +119,7 @@ export type AlarmView = {
   state: AlarmState; conditionActive: boolean;
   openedAt: string; activatedAt: string | null; unackSince: string | null; closedAt: string | null;
   ackedAt: string | null; ackedBy: string | null;
-  shelvedUntil: string | null; shelvedReason: string | null; shelvedBy: string | null; oosReason: string | null;
+  shelvedUntil: string | null; shelvedReason: string | null; shelvedBy: string | null; oosReason: string | null; oosUntil: string | null;
   firstValue: number | null; limitValue: number | null; lastValue: number | null; lastValueAt: string | null;
   rationalisation: Rationalisation; lastEventId: number;
 };

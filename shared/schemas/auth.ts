@@ -32,9 +32,18 @@ export const createUserSchema = z.object({
 });
 export type CreateUserInput = z.infer<typeof createUserSchema>;
 
+/** A role change or disabling someone signs them out at once: it needs a reason, kept in the audit trail. */
 export const updateUserSchema = z
-  .object({ role: roleSchema.optional(), disabled: z.boolean().optional(), name: z.string().trim().min(1).max(120).optional() })
-  .refine((v) => Object.keys(v).length > 0, 'Nothing to change');
+  .object({
+    role: roleSchema.optional(),
+    disabled: z.boolean().optional(),
+    name: z.string().trim().min(1).max(120).optional(),
+    reason: z.string().trim().min(3, 'Give a reason (at least 3 characters)').max(500, 'At most 500 characters').optional(),
+  })
+  .refine((v) => Object.keys(v).some((k) => k !== 'reason'), 'Nothing to change')
+  .refine((v) => (v.role === undefined && v.disabled === undefined) || v.reason !== undefined, {
+    message: 'Give a reason for changing a role or access', path: ['reason'],
+  });
 export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 
 export type SessionUser = { id: number; email: string; name: string; role: Role };

@@ -4,7 +4,7 @@ import { emailSchema } from './auth.ts';
 /** Call roster shifts and escalation policy: used by the API and the Call roster forms. */
 export const ON_CALL_ROLES = ['primary', 'backup', 'supervisor'] as const;
 export type OnCallRole = (typeof ON_CALL_ROLES)[number];
-export const ON_CALL_LABEL: Record<OnCallRole, string> = { primary: 'On call', backup: 'Backup', supervisor: 'Shift supervisor' };
+export const ON_CALL_LABEL: Record<OnCallRole, string> = { primary: 'First call', backup: 'Backup', supervisor: 'Shift supervisor' };
 
 const personName = z.string().trim().min(1, 'Enter a name').max(120);
 const iso = z.iso.datetime({ offset: true, message: 'Use a date and time with a time zone' });

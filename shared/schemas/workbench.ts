@@ -13,6 +13,10 @@ export const SITE_SETTINGS = {
   calibrationMinTempSpanC: { schema: z.number().min(1).max(100), default: 5, label: 'Temperature span to fit k', unit: '°C' },
   /** Default interval between probe checks when a probe has none of its own. */
   probeCheckIntervalDays: { schema: z.number().min(0.5).max(365), default: 7, label: 'Probe check interval', unit: 'days' },
+  /** 1: operators may shelve alarms too; 0: supervisors, engineers and admins only. */
+  operatorsMayShelve: { schema: z.number().int().min(0).max(1), default: 0, label: 'Operators may shelve alarms (1 yes, 0 no)', unit: '' },
+  /** Longest shelve the site allows; never more than the 12 h ceiling. */
+  maxShelveHours: { schema: z.number().min(0.25).max(12), default: 12, label: 'Longest shelve', unit: 'h' },
 } as const;
 
 export type SiteSettingKey = keyof typeof SITE_SETTINGS;

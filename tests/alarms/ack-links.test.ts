@@ -40,13 +40,14 @@ const confirm = (path: string, comment?: string) => request(t.app).post(path).ty
 
 describe('acknowledge links', () => {
   it('when a valid link is opened, then a confirmation page is shown and nothing changes yet; confirming acknowledges as that engineer via e-mail', async () => {
-    const { def, path } = await alarmWithLink('A1');
+    const { id, def, path } = await alarmWithLink('A1');
     const look = await page(path);
     expect(look.status).toBe(200);
     expect(look.headers['content-type']).toMatch(/html/);
     expect(look.text).toContain('Acknowledge this alarm?');
     expect(look.text).toContain('Test engineer');
     expect(look.text).toContain('<form method="post"');
+    expect(look.text).toContain(`href="/alarm-desk?alarm=${id}"`);
     expect((await instancesOf(t.sequelize, def))[0].state).toBe('unacknowledged');
     const done = await confirm(path, 'On my way to the blower house');
     expect(done.status).toBe(200);
@@ -102,5 +103,34 @@ describe('acknowledge links', () => {
     expect(res.text).toContain('Nothing to acknowledge');
     expect(res.text).toContain('acknowledged by Test supervisor');
     expect(await eventsOf(t.sequelize, def)).toEqual(before);
+  });
+
+  it('when an escalation step goes to two people, then each gets a mail of their own with only their own link, and each link acknowledges only as its recipient', async () => {
+    const clock = testClock(Date.now() - 15 * MIN);
+    const id = await raiseP1(t, clock, 'A6');
+    clock.set(Date.now());
+    const n = notifierFor(t, clock, catcher.port);
+    await n.runOnce();
+    n.close();
+    const step2 = (await mailFor(t, id)).filter((m) => m.subject.endsWith('(step 2)'));
+    expect(step2).toHaveLength(2);
+    const byPerson = new Map(step2.map((m) => [m.envelope.to.join(','), m]));
+    const supervisorMail = byPerson.get('t-supervisor@test.example')!;
+    const backupMail = byPerson.get('okoro.bright@kestrel.example')!;
+    for (const [mail, own, other] of [[supervisorMail, 'Test supervisor', 'Okoro Bright'], [backupMail, 'Okoro Bright', 'Test supervisor']] as const) {
+      expect(mail.text.match(/\/ack\//g)).toHaveLength(1);
+      expect((mail.html ?? '').match(/\/ack\//g)).toHaveLength(1);
+      expect(mail.text).toContain(`Acknowledge as ${own}:`);
+      expect(mail.text).not.toContain(`Acknowledge as ${other}`);
+    }
+    const [row] = await t.sequelize.query<{ definition_id: number }>('SELECT definition_id FROM alarm_instances WHERE id = ?', { replacements: [id], type: QueryTypes.SELECT });
+    expect((await confirm(new URL(ackLinkIn(backupMail, 'Okoro Bright')).pathname)).status).toBe(200);
+    expect((await eventsOf(t.sequelize, row.definition_id)).filter((e) => e.kind === 'acknowledged')).toEqual([
+      expect.objectContaining({ how: 'email', by_name: 'Okoro Bright', by_user_id: null }),
+    ]);
+    // The supervisor's own link cannot act again, nor in the backup's name.
+    const late = await confirm(new URL(ackLinkIn(supervisorMail, 'Test supervisor')).pathname);
+    expect(late.status).toBe(409);
+    expect(late.text).toContain('acknowledged by Okoro Bright');
   });
 });

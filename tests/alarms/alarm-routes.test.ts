@@ -17,10 +17,10 @@ const get = (path: string, role: Role = 'operator') => request(t.app).get(path).
 const post = (path: string, role: Role, body: object = {}) => request(t.app).post(path).set('Cookie', t.cookies[role]).set('X-Ferrisight-Csrf', '1').send(body);
 
 /** Raises a ratio-below-band alarm on a tank (now, real clock) and returns its instance id. */
-async function raise(tag: string): Promise<{ def: number; id: number }> {
+async function raise(tag: string, ratio = 5): Promise<{ def: number; id: number }> {
   const def = await onlyDefinition(t.sequelize, t.tanks[tag].id, 'ratio-below-band', { on_delay_s: 0 });
   const clock = testClock(Date.now());
-  await t.engine(clock).onReadings([reading(t, tag, clock.ms(), { ratio: 5 })]);
+  await t.engine(clock).onReadings([reading(t, tag, clock.ms(), { ratio })]);
   const [row] = await t.sequelize.query<{ id: number }>('SELECT id FROM alarm_instances WHERE open_definition_id = ?', { replacements: [def], type: QueryTypes.SELECT });
   return { def, id: row.id };
 }
@@ -38,15 +38,38 @@ describe('Alarm desk routes', () => {
     expect(summary.body.byPriority['1']).toMatchObject({ total: 1, unacknowledged: 1 });
   });
 
-  it('when an operator tries to acknowledge, then it is refused; when a supervisor does, then the alarm is acknowledged as that person from the screen', async () => {
+  it('when an operator acknowledges (the first responder, ISA-18.2), then the alarm is acknowledged as that person from the screen; a metallurgist may not', async () => {
     const { def, id } = await raise('A2');
-    expect((await post(`/api/alarms/instances/${id}/acknowledge`, 'operator')).status).toBe(403);
-    const res = await post(`/api/alarms/instances/${id}/acknowledge`, 'supervisor', { comment: 'Blower restarted' });
+    expect((await post(`/api/alarms/instances/${id}/acknowledge`, 'metallurgist')).status).toBe(403);
+    const res = await post(`/api/alarms/instances/${id}/acknowledge`, 'operator', { comment: 'Blower restarted' });
     expect(res.status).toBe(200);
-    expect(res.body.alarm).toMatchObject({ state: 'acknowledged', ackedBy: 'Test supervisor' });
+    expect(res.body.alarm).toMatchObject({ state: 'acknowledged', ackedBy: 'Test operator' });
     const last = (await eventsOf(t.sequelize, def)).at(-1)!;
-    expect(last).toMatchObject({ kind: 'acknowledged', how: 'screen', by_user_id: t.users.supervisor, comment: 'Blower restarted' });
+    expect(last).toMatchObject({ kind: 'acknowledged', how: 'screen', by_user_id: t.users.operator, comment: 'Blower restarted' });
     expect((await post(`/api/alarms/instances/${id}/acknowledge`, 'supervisor')).status).toBe(409);
+  });
+
+  it('when the site lets operators shelve and shortens the longest shelve, then an operator may shelve within it; by default an operator may not', async () => {
+    // Train B's band is 0.5–2 in the test plant: 0.2 is below it.
+    const { id } = await raise('B3', 0.2);
+    const body = { reason: 'Feed pump changeover', durationMin: 60 };
+    expect((await post(`/api/alarms/instances/${id}/shelve`, 'operator', body)).status).toBe(403);
+    const [{ siteId }] = await t.sequelize.query<{ siteId: number }>('SELECT c.site_id AS siteId FROM tanks t JOIN circuits c ON c.id = t.circuit_id WHERE t.id = ?', { replacements: [t.tanks.B3.id], type: QueryTypes.SELECT });
+    const put = (key: string, value: number) => request(t.app).put('/api/site-settings').set('Cookie', t.cookies.admin).set('X-Ferrisight-Csrf', '1')
+      .send({ siteId, key, value, reason: 'Alarm philosophy review' });
+    expect((await put('operatorsMayShelve', 1)).status).toBe(200);
+    expect((await put('maxShelveHours', 0.5)).status).toBe(200);
+    try {
+      const tooLong = await post(`/api/alarms/instances/${id}/shelve`, 'operator', body);
+      expect(tooLong.status).toBe(400);
+      expect(tooLong.body.errors).toEqual([{ path: 'durationMin', message: 'At most 0.5 h' }]);
+      const res = await post(`/api/alarms/instances/${id}/shelve`, 'operator', { ...body, durationMin: 30 });
+      expect(res.status).toBe(200);
+      expect(res.body.alarm).toMatchObject({ state: 'shelved', shelvedBy: 'Test operator' });
+    } finally {
+      await put('operatorsMayShelve', 0);
+      await put('maxShelveHours', 12);
+    }
   });
 
   it('when an operator comments, then the comment joins the timeline without changing the state', async () => {
@@ -85,14 +108,31 @@ describe('Alarm desk routes', () => {
     expect((await eventsOf(t.sequelize, tempDef)).map((e) => e.kind)).toEqual(['activated', 'acknowledged']);
   });
 
-  it('when a metallurgist takes an alarm out of service with a reason, then it is out of service; an engineer may not', async () => {
+  it('when a metallurgist takes an alarm out of service with a reason and a period, then it is out of service until then; an engineer may not', async () => {
     const def = await onlyDefinition(t.sequelize, t.tanks.A6.id, 'orp-low');
-    expect((await post(`/api/alarms/definitions/${def}/out-of-service`, 'engineer', { reason: 'Probe pulled for cleaning' })).status).toBe(403);
-    expect((await post(`/api/alarms/definitions/${def}/out-of-service`, 'metallurgist', {})).status).toBe(400);
-    const res = await post(`/api/alarms/definitions/${def}/out-of-service`, 'metallurgist', { reason: 'Probe pulled for cleaning' });
+    const oos = { reason: 'Probe pulled for cleaning', durationH: 4 };
+    expect((await post(`/api/alarms/definitions/${def}/out-of-service`, 'engineer', oos)).status).toBe(403);
+    const missing = await post(`/api/alarms/definitions/${def}/out-of-service`, 'metallurgist', { reason: 'Probe pulled for cleaning' });
+    expect(missing.status).toBe(400);
+    expect(missing.body.errors.map((e: { path: string }) => e.path)).toEqual(['durationH']);
+    expect((await post(`/api/alarms/definitions/${def}/out-of-service`, 'metallurgist', { ...oos, durationH: 24 * 8 })).status).toBe(400);
+    const res = await post(`/api/alarms/definitions/${def}/out-of-service`, 'metallurgist', oos);
     expect(res.body.alarm).toMatchObject({ state: 'out-of-service', oosReason: 'Probe pulled for cleaning' });
+    expect(Date.parse(res.body.alarm.oosUntil) - Date.now()).toBeGreaterThan(4 * 3_600_000 - 60_000);
     const back = await post(`/api/alarms/definitions/${def}/return-to-service`, 'metallurgist', { comment: 'Cleaned, checked against ZoBell' });
     expect(back.body.alarm.state).toBe('normal');
+  });
+
+  it('when an out-of-service period runs out, then the alarm timers return it to service on their own and say so', async () => {
+    const def = await onlyDefinition(t.sequelize, t.tanks.B4.id, 'orp-low');
+    const res = await post(`/api/alarms/definitions/${def}/out-of-service`, 'admin', { reason: 'Probe pulled for cleaning', durationH: 2 });
+    const ends = Date.parse(res.body.alarm.oosUntil);
+    await t.engine(testClock(ends - 60_000)).tick();
+    expect((await get(`/api/alarms/instances/${res.body.alarm.id}`)).body.alarm.state).toBe('out-of-service');
+    await t.engine(testClock(ends + 1000)).tick();
+    const after = (await get(`/api/alarms/instances/${res.body.alarm.id}`)).body;
+    expect(after.alarm.state).toBe('normal');
+    expect(after.timeline.at(-1)).toMatchObject({ kind: 'returned-to-service', how: 'automatic', comment: 'Out-of-service period ended' });
   });
 
   it('when a definition is edited, then a reason is required and the change is in the audit trail', async () => {

@@ -39,8 +39,9 @@ describe('e-mail escalation', () => {
     expect(mail.text).toContain('A1 · Bioleach 1 (A)');
     expect(mail.text).toContain('5.0 at activation; band 8.0–25');
     expect(mail.text).toMatch(/Since:\s+2026-12-01 18:00 Australia\/Perth \(10:00 UTC\); unacknowledged for 5 min/);
-    expect(mail.text).toContain('Test engineer (On call), this message');
+    expect(mail.text).toContain('Test engineer (First call), this step');
     expect(mail.text).toContain(`Tank page: ${PUBLIC_URL}/tanks/${t.tanks.A1.id}`);
+    expect(mail.text).toContain(`The alarm: ${PUBLIC_URL}/alarm-desk?alarm=${id}`);
     expect(mail.text).toMatch(new RegExp(`Acknowledge as Test engineer: ${PUBLIC_URL}/ack/[\\w-]+\\.[\\w-]+\\.[\\w-]+`));
     expect(mail.html).toContain('Acknowledge as Test engineer</a>');
     n.close();
@@ -54,12 +55,13 @@ describe('e-mail escalation', () => {
     await n.runOnce();
     expect((await outboxOf(t, id)).map((o) => [o.step, o.status])).toEqual([[1, 'sent'], [2, 'sent']]);
     const mails = await mailFor(t, id);
-    expect(mails.map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)']);
-    expect(mails[1].envelope.to.sort()).toEqual(['okoro.bright@kestrel.example', 't-supervisor@test.example']);
-    expect(mails[1].text).toMatch(/Test engineer \(On call\), step 1/);
+    // One mail per person: step 1 to the engineer, step 2 to the supervisor and the backup separately.
+    expect(mails.map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)', '(step 2)']);
+    expect(mails.slice(1).map((m) => m.envelope.to).sort()).toEqual([['okoro.bright@kestrel.example'], ['t-supervisor@test.example']]);
+    expect(mails[1].text).toMatch(/Test engineer \(First call\), step 1/);
     const notes = await t.sequelize.query<{ comment: string }>("SELECT comment FROM alarm_events WHERE instance_id = ? AND kind = 'escalated' ORDER BY id", { replacements: [id], type: QueryTypes.SELECT });
     expect(notes.map((e) => e.comment)).toEqual([
-      'Escalation step 1: e-mail to Test engineer (On call)',
+      'Escalation step 1: e-mail to Test engineer (First call)',
       'Escalation step 2: e-mail to Test supervisor (Shift supervisor), Okoro Bright (Backup)',
     ]);
     n.close();
@@ -107,7 +109,7 @@ describe('e-mail escalation', () => {
       expect(sentAfterMs).toBeLessThanOrEqual(60_000);
       clock.advance(10 * MIN);
       await n.runOnce();
-      expect((await mailFor(t, id)).map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)']);
+      expect((await mailFor(t, id)).map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)', '(step 2)']);
       expect((await outboxOf(t, id)).map((o) => o.status)).toEqual(['sent', 'sent']);
     } finally {
       n.close();
@@ -137,7 +139,7 @@ describe('e-mail escalation', () => {
     await Promise.all([restarted.runOnce(), second.runOnce()]);
     restarted.close();
     second.close();
-    expect((await mailFor(t, id)).map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)']);
+    expect((await mailFor(t, id)).map((m) => m.subject.slice(-8))).toEqual(['(step 1)', '(step 2)', '(step 2)']);
   });
 
   it('when nobody is on call for a step, then the outbox and the alarm history say so and nothing is sent', async () => {

@@ -79,8 +79,9 @@ describe('alarm-rate figures', () => {
     expect(f.timeToAck.byPriority[1].meanS).toBe(60);
   });
 
-  it('when a target is from memory, then its label says so', () => {
-    expect(sourceNote(ALARM_TARGETS.perHourMax)).toMatch(/from memory/);
-    expect(sourceNote(ALARM_TARGETS.per10MinAim)).not.toMatch(/from memory/);
+  it('when a target is unverified, then its label says common practice and cites nothing; a seen one names its publication', () => {
+    expect(sourceNote(ALARM_TARGETS.perHourMax)).toBe('common practice');
+    expect(sourceNote(ALARM_TARGETS.chatterCount)).toBe('common practice');
+    expect(sourceNote(ALARM_TARGETS.per10MinAim)).toBe('EEMUA 191 via published benchmarking');
   });
 });

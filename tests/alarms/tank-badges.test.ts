@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { AlarmView } from '../../shared/schemas/alarms.ts';
-import { tankBadges, tankSilenced } from '../../web/src/features/alarms/hooks/use-tank-alarm-badges.ts';
+import { tankBadges, tankHeld, tankSilenced } from '../../web/src/features/alarms/hooks/use-tank-alarm-badges.ts';
 
 /** Just the fields the badge logic reads; invented alarms of two tanks. */
 const alarm = (tankId: number, priority: 1 | 2 | 3, state: AlarmView['state'], label = 'Ratio low') =>
@@ -17,5 +17,12 @@ describe('tank alarm badges (Floor tile, Tank page)', () => {
     expect(tankBadges(alarms).has(2)).toBe(false);
     expect(tankSilenced(alarms).get(2)).toBe(2);
     expect(tankSilenced(alarms).has(3)).toBe(false);
+  });
+
+  it('when a tank has shelved and out-of-service alarms, then its marks count each kind and give the earliest shelve end', () => {
+    const shelved = (until: string) => ({ ...alarm(4, 2, 'shelved'), shelvedUntil: until }) as AlarmView;
+    const held = tankHeld([shelved('2026-12-04T12:00:00.000Z'), shelved('2026-12-04T10:00:00.000Z'), alarm(4, 3, 'out-of-service'), alarm(5, 1, 'acknowledged')]);
+    expect(held.get(4)).toEqual({ shelved: 2, outOfService: 1, suppressed: 0, shelvedUntil: '2026-12-04T10:00:00.000Z' });
+    expect(held.has(5)).toBe(false);
   });
 });

@@ -104,7 +104,7 @@ describe('tokens (ASVS 5.0 §9, §7.4)', () => {
   });
   it('when an admin disables a user, then that user\'s token stops working and sign-in is refused', async () => {
     const victim = await signIn(t.app, 't-metallurgist@test.example', TEST_PASSWORD);
-    const res = await request(t.app).patch(`/api/users/${t.users.metallurgist}`).set('X-Ferrisight-Csrf', '1').set('Cookie', t.cookies.admin).send({ disabled: true });
+    const res = await request(t.app).patch(`/api/users/${t.users.metallurgist}`).set('X-Ferrisight-Csrf', '1').set('Cookie', t.cookies.admin).send({ disabled: true, reason: 'Left the site' });
     expect(res.status).toBe(200);
     expect((await me(victim)).status).toBe(401);
     expect((await post('/api/auth/sign-in').send({ email: 't-metallurgist@test.example', password: TEST_PASSWORD })).status).toBe(401);

@@ -9,7 +9,7 @@ beforeAll(async () => {
 });
 afterAll(async () => t?.close());
 
-const asAdmin = (method: 'post' | 'patch', path: string) => request(t.app)[method](path).set('X-Ferrisight-Csrf', '1').set('Cookie', t.cookies.admin);
+const asAdmin = (method: 'get' | 'post' | 'patch', path: string) => request(t.app)[method](path).set('X-Ferrisight-Csrf', '1').set('Cookie', t.cookies.admin);
 
 describe('users', () => {
   it('when an admin creates a user, then the user can sign in and the change is audited', async () => {
@@ -38,20 +38,32 @@ describe('users', () => {
   });
 
   it('when an admin changes a role, then the change sticks and is audited with before and after', async () => {
-    const res = await asAdmin('patch', `/api/users/${t.users.engineer}`).send({ role: 'supervisor' });
+    const res = await asAdmin('patch', `/api/users/${t.users.engineer}`).send({ role: 'supervisor', reason: 'Moved to shift supervision' });
     expect(res.body.user.role).toBe('supervisor');
     const entry = await AuditEntry.findOne({ where: { action: 'user.update', entityId: String(t.users.engineer) } });
     expect(entry?.beforeJson).toMatchObject({ role: 'engineer' });
     expect(entry?.afterJson).toMatchObject({ role: 'supervisor' });
+    expect(entry?.reason).toBe('Moved to shift supervision');
+  });
+
+  it('when an admin changes a role or disables someone without a reason, then 400 with the field named and nothing changes', async () => {
+    for (const change of [{ role: 'admin' }, { disabled: true }, { role: 'admin', reason: ' x ' }]) {
+      const res = await asAdmin('patch', `/api/users/${t.users.operator}`).send(change);
+      expect(res.status).toBe(400);
+      expect(res.headers['content-type']).toMatch(/problem\+json/);
+      expect(res.body.errors).toEqual(expect.arrayContaining([expect.objectContaining({ path: 'reason' })]));
+    }
+    const list = (await asAdmin('get', '/api/users').send()).body.users as Array<{ id: number; role: string; disabled: boolean }>;
+    expect(list.find((u) => u.id === t.users.operator)).toMatchObject({ role: 'operator', disabled: false });
   });
 
   it('when an admin tries to disable themselves, then 400', async () => {
-    expect((await asAdmin('patch', `/api/users/${t.users.admin}`).send({ disabled: true })).status).toBe(400);
+    expect((await asAdmin('patch', `/api/users/${t.users.admin}`).send({ disabled: true, reason: 'Left the site' })).status).toBe(400);
   });
 
   it('when the user does not exist or the body is empty, then 404 or 400', async () => {
-    expect((await asAdmin('patch', '/api/users/99999').send({ role: 'operator' })).status).toBe(404);
+    expect((await asAdmin('patch', '/api/users/99999').send({ role: 'operator', reason: 'Test change' })).status).toBe(404);
     expect((await asAdmin('patch', `/api/users/${t.users.operator}`).send({})).status).toBe(400);
-    expect((await asAdmin('patch', '/api/users/abc').send({ role: 'operator' })).status).toBe(400);
+    expect((await asAdmin('patch', '/api/users/abc').send({ role: 'operator', reason: 'Test change' })).status).toBe(400);
   });
 });

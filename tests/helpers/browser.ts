@@ -29,3 +29,36 @@ export async function signIn(page: Page, role: string): Promise<void> {
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15_000 });
 }
+
+/** A signed-in page of its own (own cookies) at a viewport size, collecting page errors. */
+export async function signedInPage(browser: Browser, role: string, viewport: { width: number; height: number }) {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await signIn(page, role);
+  return { context, page, errors };
+}
+
+/** How far the page scrolls sideways (0 when nothing overflows: scrollWidth <= innerWidth). */
+export async function overflowX(page: Page): Promise<number> {
+  return page.evaluate(() => Math.max(0, document.documentElement.scrollWidth - window.innerWidth));
+}
+
+/** Waits until a screen has drawn its heading and no loading notice is left in the main area. */
+export async function screenReady(page: Page): Promise<void> {
+  await page.locator('main h1').first().waitFor({ state: 'attached', timeout: 20_000 });
+  await page.waitForFunction(() => !document.querySelector('main [data-testid="loading"]'), undefined, { timeout: 20_000 });
+}
+
+/** The colour a CSS custom property resolves to in the page's theme, as the browser computes colours ("rgb(…)"). */
+export async function themeColour(page: Page, variable: string): Promise<string> {
+  return page.evaluate((v) => {
+    const probe = document.createElement('span');
+    probe.style.color = `var(${v})`;
+    document.body.append(probe);
+    const colour = getComputedStyle(probe).color;
+    probe.remove();
+    return colour;
+  }, variable);
+}

@@ -106,7 +106,7 @@ describe('the API under the app user\'s grants', () => {
     const signIn = async (email: string) => String((await request(api).post('/api/auth/sign-in').set('X-Ferrisight-Csrf', '1').send({ email, password: 'kestrel-demo' })).headers['set-cookie']).split(';')[0];
     const admin = await signIn('admin@kestrel.example');
     const [op] = await conn.query("SELECT id FROM users WHERE email = 'operator@kestrel.example'");
-    const patch = (disabled: boolean) => request(api).patch(`/api/users/${op.id}`).set('Cookie', admin).set('X-Ferrisight-Csrf', '1').send({ disabled });
+    const patch = (disabled: boolean) => request(api).patch(`/api/users/${op.id}`).set('Cookie', admin).set('X-Ferrisight-Csrf', '1').send({ disabled, reason: 'Access review' });
     expect((await patch(true)).status).toBe(200);
     expect((await patch(false)).status).toBe(200);
     expect((await request(api).post('/api/auth/sign-out').set('Cookie', admin).set('X-Ferrisight-Csrf', '1')).status).toBe(204);

@@ -118,7 +118,7 @@ describe('live sockets are cut when the session ends', () => {
     const c = await tryConnect({ token: issueToken({ id: t.users.metallurgist, role: 'metallurgist' }, TEST_SECRET, 3600) });
     expect(c.result).toBe('connected');
     const cut = cutAfter(c.socket);
-    await request(t.app).patch(`/api/users/${t.users.metallurgist}`).set('Cookie', t.cookies.admin).set('X-Ferrisight-Csrf', '1').send({ disabled: true }).expect(200);
+    await request(t.app).patch(`/api/users/${t.users.metallurgist}`).set('Cookie', t.cookies.admin).set('X-Ferrisight-Csrf', '1').send({ disabled: true, reason: 'Left the site' }).expect(200);
     expect((await cut) - Date.now()).toBeLessThan(2_000);
     await User.update({ disabled: false }, { where: { id: t.users.metallurgist } });
   }, 15_000);

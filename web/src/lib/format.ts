@@ -83,3 +83,20 @@ export function formatUtcOffset(ms: number, timeZone: string): string {
     .find((p) => p.type === 'timeZoneName');
   return part?.value.replace('GMT', 'UTC') || 'UTC';
 }
+
+/** A span in its largest sensible unit: "45 s", "12 min", "1 h 30 min", "24 h", "2 d 4 h". */
+export function formatDuration(seconds: number): string {
+  const s = Math.max(0, Math.round(seconds));
+  if (s < 90) return `${s} s`;
+  const totalMin = Math.round(s / 60);
+  if (totalMin < 60) return `${totalMin} min`;
+  if (totalMin < 48 * 60) {
+    const h = Math.floor(totalMin / 60);
+    const m = totalMin % 60;
+    return m ? `${h} h ${m} min` : `${h} h`;
+  }
+  const totalH = Math.round(totalMin / 60);
+  const d = Math.floor(totalH / 24);
+  const h = totalH % 24;
+  return h ? `${d} d ${h} h` : `${d} d`;
+}

@@ -7,10 +7,13 @@ import { createContext, useContext, type ReactNode } from 'react';
 /** `unacknowledged` counts the alarms of the worst priority that wait for acknowledgement. */
 export type TankAlarmBadge = { priority: 1 | 2 | 3; count: number; unacknowledged: number; label: string };
 
-/** `badges`: worst annunciated alarm per tank; `silenced`: how many of a tank's open alarms are shelved, suppressed or out of service. */
-export type TankAlarms = { badges: ReadonlyMap<number, TankAlarmBadge>; silenced: ReadonlyMap<number, number> };
+/** Open alarms of a tank that do not sound now, by why; `shelvedUntil` is the earliest shelve end. */
+export type TankHeldAlarms = { shelved: number; outOfService: number; suppressed: number; shelvedUntil: string | null };
 
-const TankAlarmsContext = createContext<TankAlarms>({ badges: new Map(), silenced: new Map() });
+/** `badges`: worst annunciated alarm per tank; `silenced`: how many of a tank's open alarms are shelved, suppressed or out of service; `held`: the same by kind. */
+export type TankAlarms = { badges: ReadonlyMap<number, TankAlarmBadge>; silenced: ReadonlyMap<number, number>; held: ReadonlyMap<number, TankHeldAlarms> };
+
+const TankAlarmsContext = createContext<TankAlarms>({ badges: new Map(), silenced: new Map(), held: new Map() });
 
 export function TankAlarmsProvider({ value, children }: { value: TankAlarms; children: ReactNode }) {
   return <TankAlarmsContext.Provider value={value}>{children}</TankAlarmsContext.Provider>;
@@ -18,6 +21,14 @@ export function TankAlarmsProvider({ value, children }: { value: TankAlarms; chi
 
 export function useTankAlarm(tankId: number): TankAlarmBadge | undefined {
   return useContext(TankAlarmsContext).badges.get(tankId);
+}
+
+export function useTankAlarms(): TankAlarms {
+  return useContext(TankAlarmsContext);
+}
+
+export function useTankHeldAlarms(tankId: number): TankHeldAlarms | undefined {
+  return useContext(TankAlarmsContext).held.get(tankId);
 }
 
 /** Open alarms of the tank that do not sound now (shelved, suppressed, out of service). */

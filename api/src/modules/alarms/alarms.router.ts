@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import type { Role } from '../../../../shared/schemas/auth.ts';
+import { ACK_ROLES, SERVICE_ROLES, SHELVE_GATE } from '../../../../shared/alarms/roles.ts';
 import {
   acknowledgeSchema, activeQuerySchema, commentSchema, eventsAfterQuerySchema, figuresQuerySchema, historyQuerySchema,
   oosSchema, returnToServiceSchema, shelveSchema,
@@ -10,10 +10,7 @@ import { body, params, queryParams } from '../../middleware/validate.ts';
 import { alarmsService as svc } from './alarms.service.ts';
 import { definitionsRouter } from './definitions.router.ts';
 
-/** Who may acknowledge and shelve (supervisors own the alarm response); everyone signed in sees and comments. */
-export const ACK_ROLES: Role[] = ['supervisor', 'engineer', 'admin'];
-/** Out of service is a maintenance decision. */
-export const SERVICE_ROLES: Role[] = ['metallurgist', 'admin'];
+/** Everyone signed in sees and comments; who acknowledges, shelves and takes out of service: shared/alarms/roles.ts. */
 
 export function alarmsRouter(): Router {
   const r = Router();
@@ -45,7 +42,8 @@ export function alarmsRouter(): Router {
   r.post('/instances/:id/acknowledge', requireRole(...ACK_ROLES), async (req, res) => {
     res.json(await svc.acknowledge(params(idParamSchema, req).id, req.user!, body(acknowledgeSchema, req).comment));
   });
-  r.post('/instances/:id/shelve', requireRole(...ACK_ROLES), async (req, res) => {
+  // Operators pass this gate; the service applies the site's shelve setting.
+  r.post('/instances/:id/shelve', requireRole(...SHELVE_GATE), async (req, res) => {
     res.json(await svc.shelve(params(idParamSchema, req).id, req.user!, body(shelveSchema, req)));
   });
   r.post('/instances/:id/unshelve', requireRole(...ACK_ROLES), async (req, res) => {
@@ -58,10 +56,10 @@ export function alarmsRouter(): Router {
     res.json(await svc.acknowledgeTank(params(idParamSchema, req).id, req.user!, body(acknowledgeSchema, req).comment));
   });
   r.post('/definitions/:id/out-of-service', requireRole(...SERVICE_ROLES), async (req, res) => {
-    res.json(await svc.definitionAction(params(idParamSchema, req).id, 'remove-from-service', req.user!, body(oosSchema, req).reason));
+    res.json(await svc.removeFromService(params(idParamSchema, req).id, req.user!, body(oosSchema, req)));
   });
   r.post('/definitions/:id/return-to-service', requireRole(...SERVICE_ROLES), async (req, res) => {
-    res.json(await svc.definitionAction(params(idParamSchema, req).id, 'return-to-service', req.user!, body(returnToServiceSchema, req).comment));
+    res.json(await svc.returnToService(params(idParamSchema, req).id, req.user!, body(returnToServiceSchema, req).comment));
   });
   definitionsRouter(r);
   return r;

@@ -1,10 +1,12 @@
 import { stringify } from 'csv-stringify/sync';
 import { alarmFigures } from '../../../../shared/alarms/figures.ts';
-import { MAX_SHELVE_MIN, type AlarmAction } from '../../../../shared/alarms/states.ts';
+import { MAX_SHELVE_MIN } from '../../../../shared/alarms/states.ts';
 import { ALARM_TARGETS } from '../../../../shared/alarms/targets.ts';
-import type { ActiveQuery, AlarmSummary, AlarmView, HistoryQuery, ShelveInput } from '../../../../shared/schemas/alarms.ts';
+import { mayShelve } from '../../../../shared/alarms/roles.ts';
+import type { ActiveQuery, AlarmSummary, AlarmView, HistoryQuery, OosInput, ShelveInput } from '../../../../shared/schemas/alarms.ts';
 import type { SessionUser } from '../../../../shared/schemas/auth.ts';
 import { AppError } from '../../lib/app-error.ts';
+import { siteSettingsRepository } from '../site-settings/site-settings.repository.ts';
 import { alarmsRepository as repo } from './alarms.repository.ts';
 import { definitionsRepository } from './definitions.repository.ts';
 import { applyAction, type ApplyInput } from './lifecycle.ts';
@@ -79,12 +81,19 @@ export const alarmsService = {
     return { acknowledged };
   },
 
-  shelve(id: number, who: Who, input: ShelveInput) {
+  /** Who may shelve and for how long is the site's setting, under the 12 h ceiling. */
+  async shelve(id: number, who: Who & Pick<SessionUser, 'role'>, input: ShelveInput) {
+    const alarm = await repo.instance(id);
+    if (!alarm) throw AppError.notFound('Alarm');
+    const rule = await siteSettingsRepository.forTank(alarm.tankId);
+    if (!mayShelve(who.role, rule)) throw AppError.forbidden('At this site, shelving is for supervisors, engineers and admins');
+    const maxMin = Math.min(MAX_SHELVE_MIN, rule.maxShelveHours * 60);
     const now = new Date();
     const until = input.until ? new Date(input.until) : new Date(now.getTime() + input.durationMin! * 60_000);
     if (until.getTime() <= now.getTime()) throw AppError.badRequest('The shelve must end in the future', { errors: [{ path: 'until', message: 'Must be in the future' }] });
-    if (until.getTime() - now.getTime() > MAX_SHELVE_MIN * 60_000 + 1000) {
-      throw AppError.badRequest('A shelve lasts at most 12 h', { errors: [{ path: 'until', message: 'At most 12 h ahead' }] });
+    if (until.getTime() - now.getTime() > maxMin * 60_000 + 1000) {
+      const limit = `${Number((maxMin / 60).toFixed(2))} h`;
+      throw AppError.badRequest(`A shelve lasts at most ${limit} at this site`, { errors: [{ path: input.until ? 'until' : 'durationMin', message: `At most ${limit}` }] });
     }
     return act({ instanceId: id, action: 'shelve', reason: input.reason, shelvedUntil: until }, who, now);
   },
@@ -92,8 +101,15 @@ export const alarmsService = {
   unshelve: (id: number, who: Who, comment?: string) => act({ instanceId: id, action: 'unshelve', comment }, who, new Date()),
   comment: (id: number, who: Who, text: string) => act({ instanceId: id, action: 'comment', comment: text }, who, new Date()),
 
-  async definitionAction(definitionId: number, action: Extract<AlarmAction, 'remove-from-service' | 'return-to-service'>, who: Who, text?: string) {
+  async removeFromService(definitionId: number, who: Who, input: OosInput) {
     if (!(await definitionsRepository.get(definitionsRepository.db(), definitionId))) throw AppError.notFound('Alarm definition');
-    return act({ definitionId, action, reason: action === 'remove-from-service' ? text : undefined, comment: text }, who, new Date());
+    const now = new Date();
+    const oosUntil = new Date(now.getTime() + Math.round(input.durationH * 3_600_000));
+    return act({ definitionId, action: 'remove-from-service', reason: input.reason, comment: input.reason, oosUntil }, who, now);
+  },
+
+  async returnToService(definitionId: number, who: Who, comment: string) {
+    if (!(await definitionsRepository.get(definitionsRepository.db(), definitionId))) throw AppError.notFound('Alarm definition');
+    return act({ definitionId, action: 'return-to-service', comment }, who, new Date());
   },
 };

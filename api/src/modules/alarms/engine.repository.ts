@@ -82,6 +82,13 @@ export async function expiredShelves(sequelize: Sequelize, now: Date): Promise<A
     { replacements: [now], type: QueryTypes.SELECT });
 }
 
+/** Open instances whose out-of-service period has run out. */
+export async function expiredOutOfService(sequelize: Sequelize, now: Date): Promise<Array<{ definition_id: number }>> {
+  return sequelize.query<{ definition_id: number }>(
+    "SELECT definition_id FROM alarm_instances WHERE state = 'out-of-service' AND oos_until <= ? ORDER BY id",
+    { replacements: [now], type: QueryTypes.SELECT });
+}
+
 /** Open instances whose suppression no longer matches their tank's offline flag. */
 export async function suppressionChanges(sequelize: Sequelize): Promise<Array<{ id: number; offline: number }>> {
   return sequelize.query<{ id: number; offline: number }>(

@@ -6,7 +6,7 @@ import type { AlarmAction } from '../../../../shared/alarms/states.ts';
 import type { TankLive } from '../../../../shared/schemas/readings.ts';
 import { logger } from '../../lib/logger.ts';
 import {
-  definitionsForTanks, expiredShelves, lastReadingTimes, recentSamples, suppressionChanges, timerDefinitions,
+  definitionsForTanks, expiredOutOfService, expiredShelves, lastReadingTimes, recentSamples, suppressionChanges, timerDefinitions,
   type EvalDefinition, type TimerDefinition,
 } from './engine.repository.ts';
 import { DEFAULT_CHECK_INTERVAL_DAYS, inputPuller, type AlarmInputProviders } from './engine-inputs.ts';
@@ -172,6 +172,11 @@ export function createAlarmEngine(opts: { sequelize: Sequelize; now?: () => Date
       await guarded('shelve expiry', async () => {
         for (const s of await expiredShelves(sequelize, at)) {
           await applyAction(sequelize, { instanceId: s.id, action: 'unshelve', at, actor: AUTOMATIC, comment: 'Shelve expired' });
+        }
+      });
+      await guarded('out-of-service expiry', async () => {
+        for (const s of await expiredOutOfService(sequelize, at)) {
+          await applyAction(sequelize, { definitionId: s.definition_id, action: 'return-to-service', at, actor: AUTOMATIC, comment: 'Out-of-service period ended' });
         }
       });
       await guarded('suppression', async () => {

@@ -24,6 +24,8 @@ export type ApplyInput = {
   value?: number | null;
   limit?: number | null;
   shelvedUntil?: Date | null;
+  /** When an out-of-service period ends on its own. */
+  oosUntil?: Date | null;
 };
 
 export type ApplyResult =
@@ -79,8 +81,8 @@ function instanceUpdate(input: ApplyInput, from: AlarmStatus, to: AlarmStatus, a
   if (input.action === 'acknowledge') Object.assign(set, { acked_at: input.at, acked_by: input.actor.name });
   if (input.action === 'shelve') Object.assign(set, { shelved_until: input.shelvedUntil ?? null, shelved_reason: input.reason ?? null, shelved_by: input.actor.name });
   if (input.action === 'unshelve') set.shelved_until = null;
-  if (input.action === 'remove-from-service') set.oos_reason = input.reason ?? null;
-  if (input.action === 'return-to-service') set.oos_reason = null;
+  if (input.action === 'remove-from-service') Object.assign(set, { oos_reason: input.reason ?? null, oos_until: input.oosUntil ?? null });
+  if (input.action === 'return-to-service') Object.assign(set, { oos_reason: null, oos_until: null });
   if (to.state === 'normal' && input.action !== 'comment') Object.assign(set, { open_definition_id: null, closed_at: input.at });
   return set;
 }

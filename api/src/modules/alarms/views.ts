@@ -8,7 +8,7 @@ const iso = (d: Date | string | null): string | null => (d === null ? null : new
 export type InstanceRow = {
   id: number; definition_id: number; tank_id: number; priority: Priority; state: AlarmState; condition_active: number;
   opened_at: Date; activated_at: Date | null; unack_since: Date | null; acked_at: Date | null; acked_by: string | null;
-  closed_at: Date | null; shelved_until: Date | null; shelved_reason: string | null; shelved_by: string | null; oos_reason: string | null;
+  closed_at: Date | null; shelved_until: Date | null; shelved_reason: string | null; shelved_by: string | null; oos_reason: string | null; oos_until: Date | null;
   first_value: number | null; limit_value: number | null; last_value: number | null; last_value_at: Date | null; last_event_id: number;
   kind: AlarmKind; cause: string; consequence: string; action: string; response_min: number;
   tank_tag: string; tank_name: string; circuit_id: number; circuit_tag: string; site_tag: string;
@@ -21,7 +21,7 @@ export function toAlarmView(r: InstanceRow): AlarmView {
     state: r.state, conditionActive: r.condition_active === 1,
     openedAt: iso(r.opened_at)!, activatedAt: iso(r.activated_at), unackSince: iso(r.unack_since), closedAt: iso(r.closed_at),
     ackedAt: iso(r.acked_at), ackedBy: r.acked_by,
-    shelvedUntil: iso(r.shelved_until), shelvedReason: r.shelved_reason, shelvedBy: r.shelved_by, oosReason: r.oos_reason,
+    shelvedUntil: iso(r.shelved_until), shelvedReason: r.shelved_reason, shelvedBy: r.shelved_by, oosReason: r.oos_reason, oosUntil: iso(r.oos_until),
     firstValue: r.first_value, limitValue: r.limit_value, lastValue: r.last_value, lastValueAt: iso(r.last_value_at),
     rationalisation: { cause: r.cause, consequence: r.consequence, action: r.action, responseMin: r.response_min },
     lastEventId: r.last_event_id,

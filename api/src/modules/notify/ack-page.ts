@@ -14,7 +14,8 @@ const STATUS: Record<AckPage['outcome'] | 'unconfigured', number> = {
 function summary(p: AckPage): string {
   const a = p.alarm;
   if (!a) return '';
-  return `<p class="alarm"><span class="pill p${a.priority}">P${a.priority}</span> <strong>${esc(a.tankTag)}</strong> · ${esc(a.label)}</p>`;
+  return `<p class="alarm"><span class="pill p${a.priority}">P${a.priority}</span> <strong>${esc(a.tankTag)}</strong> · ${esc(a.label)}</p>
+<p><a href="/alarm-desk?alarm=${a.id}">Open this alarm on the Alarm desk</a> (sign-in needed)</p>`;
 }
 
 function body(p: AckPage | null, action: string): { title: string; html: string } {
@@ -46,7 +47,7 @@ export function renderAckPage(p: AckPage | null, action: string): { status: numb
     html: `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width,initial-scale=1">
 <meta name="robots" content="noindex"><title>${esc(title)} · Ferrisight</title><style>
 body{margin:0;font-family:Barlow,system-ui,sans-serif;background:#171c21;color:#eef2f5}
-main{max-width:34rem;margin:3rem auto;padding:1.5rem;background:#232a31;border:1px solid #444e59;border-radius:.5rem}
+a{color:#7cc8d8}main{max-width:34rem;margin:3rem auto;padding:1.5rem;background:#232a31;border:1px solid #444e59;border-radius:.5rem}
 h1{font-size:1.4rem;margin:0 0 1rem}label{display:block;margin-top:1rem}
 textarea{width:100%;box-sizing:border-box;background:#171c21;color:#eef2f5;border:1px solid #5b6672;border-radius:.25rem;font:inherit}
 button{margin-top:1rem;padding:.6rem 1.2rem;font:inherit;font-weight:600;background:#eef2f5;color:#12171c;border:0;border-radius:.25rem;cursor:pointer}

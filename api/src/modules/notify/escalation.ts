@@ -57,7 +57,7 @@ async function queueStep(s: EscalationSettings, alarm: AlarmView, step: Escalati
   const expiresAt = new Date(now.getTime() + s.ackTtlS * 1000);
   const mail = composeMail({
     alarm, siteName: facts.siteName, band: facts.band, step: step.step, afterMin: step.afterMin, latest,
-    recipients: links, told, tankUrl: `${s.publicUrl}/tanks/${alarm.tankId}`, timeZone: facts.timeZone, linkExpiresAt: expiresAt, now,
+    recipients: links, told, tankUrl: `${s.publicUrl}/tanks/${alarm.tankId}`, alarmUrl: `${s.publicUrl}/alarm-desk?alarm=${alarm.id}`, timeZone: facts.timeZone, linkExpiresAt: expiresAt, now,
   });
   const recipients: Recipient[] = links.map(({ personName, email, roleOnCall, ackUrl }) => ({ personName, email, roleOnCall, ackUrl }));
   const host = new URL(s.publicUrl).hostname || 'ferrisight.local';

@@ -3,7 +3,8 @@ import type { AlarmView } from '../../../../shared/schemas/alarms.ts';
 import { ON_CALL_LABEL, type OnCallRole } from '../../../../shared/schemas/roster.ts';
 
 /** Escalation mail: the same facts in a plain-text and an HTML part, composed once and stored in the outbox. */
-export type Recipient = { personName: string; email: string; roleOnCall: OnCallRole; ackUrl: string };
+/** `sentAt` is set once that person's own mail has gone, so a retry never sends it twice. */
+export type Recipient = { personName: string; email: string; roleOnCall: OnCallRole; ackUrl: string; sentAt?: string };
 export type Told = { personName: string; roleOnCall: OnCallRole; step: number; at: string };
 export type MailContext = {
   alarm: AlarmView;
@@ -15,6 +16,8 @@ export type MailContext = {
   recipients: Recipient[];
   told: Told[];
   tankUrl: string;
+  /** The alarm itself on the Alarm desk. */
+  alarmUrl: string;
   timeZone: string;
   linkExpiresAt: Date;
   now: Date;
@@ -62,11 +65,19 @@ function facts(c: MailContext): Array<[string, string]> {
 
 function toldLines(c: MailContext): string[] {
   const earlier = c.told.map((t) => `${t.personName} (${ON_CALL_LABEL[t.roleOnCall]}), step ${t.step}, ${when(t.at, c.timeZone)}`);
-  const now = c.recipients.map((r) => `${r.personName} (${ON_CALL_LABEL[r.roleOnCall]}), this message`);
+  const now = c.recipients.map((r) => `${r.personName} (${ON_CALL_LABEL[r.roleOnCall]}), this step`);
   return [...earlier, ...now];
 }
 
 const CAUTION = 'Ferrisight is an advisory tool: it does not replace the control system\'s own alarms, the safety system, site procedures or permit-to-work.';
+
+/**
+ * Where each person's own acknowledge link goes. The stored mail holds these markers; the
+ * outbox fills them in per recipient, so nobody receives a link that acts in another's name.
+ */
+const TEXT_SLOT = '[[ferrisight-personal-ack]]';
+const HTML_SLOT = '<!--ferrisight-personal-ack-->';
+const esc = (s: string) => s.replace(/[&<>"']/g, (ch) => `&#${ch.charCodeAt(0)};`);
 
 export function composeMail(c: MailContext): ComposedMail {
   const a = c.alarm;
@@ -76,20 +87,28 @@ export function composeMail(c: MailContext): ComposedMail {
     `A P${a.priority} alarm at ${c.siteName} is waiting for acknowledgement.`, '',
     ...facts(c).map(([k, v]) => `${`${k}:`.padEnd(16)} ${v}`), '',
     'Told so far:', ...toldLines(c).map((l) => `  - ${l}`), '',
+    `The alarm: ${c.alarmUrl}`,
     `Tank page: ${c.tankUrl}`, '',
-    ...c.recipients.flatMap((r) => [`Acknowledge as ${r.personName}: ${r.ackUrl}`]),
-    `(Each link works once, until ${expires}, and asks you to confirm first.)`, '',
+    TEXT_SLOT,
+    `(Your link is yours alone: it works once, until ${expires}, and asks you to confirm first.)`, '',
     CAUTION, '',
   ].join('\n');
-  const esc = (s: string) => s.replace(/[&<>"']/g, (ch) => `&#${ch.charCodeAt(0)};`);
   const html = `<!doctype html><html><body style="font-family:Barlow,Arial,sans-serif;color:#12171c">
 <p><strong>A P${a.priority} alarm at ${esc(c.siteName)} is waiting for acknowledgement.</strong></p>
 <table cellpadding="4" style="border-collapse:collapse">${facts(c).map(([k, v]) => `<tr><th align="left" valign="top">${esc(k)}</th><td>${esc(v)}</td></tr>`).join('')}</table>
 <p><strong>Told so far</strong></p><ul>${toldLines(c).map((l) => `<li>${esc(l)}</li>`).join('')}</ul>
-<p><a href="${esc(c.tankUrl)}">Open the tank page</a></p>
-${c.recipients.map((r) => `<p><a href="${esc(r.ackUrl)}">Acknowledge as ${esc(r.personName)}</a></p>`).join('')}
-<p style="color:#444e59">Each link works once, until ${esc(expires)}, and asks you to confirm first.</p>
+<p><a href="${esc(c.alarmUrl)}">Open the alarm</a> · <a href="${esc(c.tankUrl)}">Open the tank page</a></p>
+${HTML_SLOT}
+<p style="color:#444e59">Your link is yours alone: it works once, until ${esc(expires)}, and asks you to confirm first.</p>
 <p style="color:#444e59;font-size:90%">${esc(CAUTION)}</p>
 </body></html>`;
   return { subject, text, html };
+}
+
+/** One recipient's copy: only that person's acknowledge link. */
+export function personalMail(mail: Pick<ComposedMail, 'text' | 'html'>, r: Pick<Recipient, 'personName' | 'ackUrl'>): Pick<ComposedMail, 'text' | 'html'> {
+  return {
+    text: mail.text.split(TEXT_SLOT).join(`Acknowledge as ${r.personName}: ${r.ackUrl}`),
+    html: mail.html.split(HTML_SLOT).join(`<p><a href="${esc(r.ackUrl)}">Acknowledge as ${esc(r.personName)}</a></p>`),
+  };
 }

@@ -79,6 +79,11 @@ export const outboxRepository = {
     await sequelize.query("UPDATE mail_outbox SET status = 'cancelled', claimed_until = NULL WHERE id = ?", { replacements: [id] });
   },
 
+  /** Records who has been sent their own copy, so a retry after a partial failure skips them. */
+  async markRecipients(sequelize: Sequelize, id: number, recipients: Recipient[]): Promise<void> {
+    await sequelize.query('UPDATE mail_outbox SET recipients = ? WHERE id = ?', { replacements: [JSON.stringify(recipients), id] });
+  },
+
   async markSent(sequelize: Sequelize, id: number, at: Date): Promise<void> {
     await sequelize.query("UPDATE mail_outbox SET status = 'sent', sent_at = ?, attempts = attempts + 1, claimed_until = NULL, last_error = NULL WHERE id = ?",
       { replacements: [at, id] });

@@ -2,13 +2,16 @@ import type { Transporter } from 'nodemailer';
 import type { Sequelize } from 'sequelize';
 import { logger } from '../../lib/logger.ts';
 import { outboxRepository as repo } from './outbox.repository.ts';
+import { personalMail } from './mail-compose.ts';
 
 /**
  * Sends queued mail. nodemailer neither retries nor persists (nodemailer#1425, #1446), so the outbox
  * row is the message: a failure leaves it pending with a later next_attempt_at, and a worker
  * that dies mid-send leaves a claim that expires, so the message is retried, never lost.
- * A crash between the relay's "250 OK" and the status update can repeat one message; the
- * Message-ID is stable per (alarm, step) so the receiving side can recognise the repeat.
+ * Each recipient gets a mail of their own carrying only their own acknowledge link; who has
+ * been sent theirs is marked in the row, so a retry after a partial failure sends only the rest.
+ * A crash between the relay's "250 OK" and that mark can repeat one message; the Message-ID is
+ * stable per (alarm, step, recipient) so the receiving side can recognise the repeat.
  */
 export type OutboxSettings = {
   sequelize: Sequelize;
@@ -41,13 +44,17 @@ export async function sendDueMail(s: OutboxSettings): Promise<SendResult> {
       continue;
     }
     try {
-      const info = await s.transport.sendMail({
-        from: s.from, to: row.recipients.map((r) => ({ name: r.personName, address: r.email })), subject: row.subject,
-        text: row.textBody, html: row.htmlBody, messageId: row.messageId,
-        headers: { 'X-Ferrisight-Alarm': String(row.instanceId) },
-      });
+      for (const [i, r] of row.recipients.entries()) {
+        if (r.sentAt) continue;
+        const info = await s.transport.sendMail({
+          from: s.from, to: { name: r.personName, address: r.email }, subject: row.subject, ...personalMail({ text: row.textBody, html: row.htmlBody }, r),
+          messageId: row.messageId.replace(/@/, `-${i + 1}@`), headers: { 'X-Ferrisight-Alarm': String(row.instanceId) },
+        });
+        r.sentAt = now.toISOString();
+        await repo.markRecipients(sequelize, row.id, row.recipients);
+        logger.info({ outboxId: row.id, instanceId: row.instanceId, recipient: i + 1, response: info.response }, 'escalation mail sent');
+      }
       await repo.markSent(sequelize, row.id, now);
-      logger.info({ outboxId: row.id, instanceId: row.instanceId, response: info.response }, 'escalation mail sent');
       result.sent += 1;
     } catch (err) {
       const attempts = row.attempts + 1;

@@ -35,7 +35,7 @@ export const usersRepository = {
     });
   },
 
-  async update(id: number, changes: { role?: Role; disabled?: boolean; name?: string }, byUserId: number): Promise<UserRow | null> {
+  async update(id: number, { reason, ...changes }: { role?: Role; disabled?: boolean; name?: string; reason?: string }, byUserId: number): Promise<UserRow | null> {
     return User.sequelize!.transaction(async (transaction) => {
       const u = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
       if (!u) return null;
@@ -43,7 +43,7 @@ export const usersRepository = {
       // A role change or disabling ends every session of that user at once.
       const revoke = (changes.role && changes.role !== u.role) || (changes.disabled === true && !u.disabled);
       await u.update({ ...changes, ...(revoke ? { tokensValidAfter: new Date() } : {}) }, { transaction });
-      await writeAudit({ userId: byUserId, action: 'user.update', entity: 'user', entityId: id, before, after: toRow(u) }, transaction);
+      await writeAudit({ userId: byUserId, action: 'user.update', entity: 'user', entityId: id, before, after: toRow(u), reason }, transaction);
       return { row: toRow(u), revoke };
     }).then((r) => {
       if (r?.revoke) sessionEvents.emit('revoked', id);

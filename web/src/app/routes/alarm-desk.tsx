@@ -14,7 +14,7 @@ function Desk() {
   if (!user || !plant.data) return <Loading label="Loading the Alarm desk…" />;
   const sites = plant.data.sites;
   const places: Place[] = sites.flatMap((s) =>
-    s.circuits.flatMap((c) => c.tanks.map((t) => ({ siteTag: s.tag, siteName: s.name, circuitId: c.id, circuitName: c.name, tankId: t.id, tankTag: t.tag }))),
+    s.circuits.flatMap((c) => c.tanks.map((t) => ({ siteTag: s.tag, siteName: s.name, circuitId: c.id, circuitName: c.name, tankId: t.id, tankTag: t.tag, latest: t.latest }))),
   );
   return <AlarmDesk role={user.role} timeZone={sites[0]?.timeZone ?? 'UTC'} places={places} aside={<OnCallNow />} />;
 }

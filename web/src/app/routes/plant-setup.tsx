@@ -1,3 +1,4 @@
+import { AlarmHandlingPanel } from '../../features/admin/components/alarm-handling-panel';
 import { IngestHealthPanel } from '../../features/admin/components/ingest-health-panel';
 import { SimulatorPanel } from '../../features/admin/components/simulator-panel';
 import { UsersPanel } from '../../features/admin/components/users-panel';
@@ -19,6 +20,7 @@ function PlantSetup() {
     <div className="mx-auto flex max-w-6xl flex-col gap-4">
       <h1 className="text-2xl font-bold">Plant setup</h1>
       <UsersPanel currentUserId={user?.id ?? -1} />
+      <AlarmHandlingPanel />
       <div className="grid gap-4 lg:grid-cols-2">
         <SimulatorPanel probes={probes} />
         <IngestHealthPanel timeZone={plant.data?.sites[0]?.timeZone ?? 'UTC'} />

@@ -34,7 +34,7 @@ export function ConnectionBadge() {
       <svg viewBox="0 0 14 14" className={`h-3.5 w-3.5 ${state === 'reconnecting' || state === 'connecting' ? 'pulse-attention' : ''}`} aria-hidden="true">
         <Glyph state={state} />
       </svg>
-      <span className="font-semibold">{TEXT[state]}</span>
+      <span className="sr-only font-semibold sm:not-sr-only">{TEXT[state]}</span>
       {polling && <span className="hidden text-ink-muted xl:inline">· polling {FALLBACK_POLL_MS / 1000} s</span>}
     </div>
   );

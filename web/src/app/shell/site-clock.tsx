@@ -5,7 +5,7 @@ import { formatClock, formatUtcOffset } from '../../lib/format';
 export function SiteClock({ siteName, timeZone }: { siteName: string; timeZone: string }) {
   const now = useNow();
   return (
-    <div className="flex flex-col items-end leading-tight">
+    <div className="hidden flex-col items-end leading-tight md:flex">
       <span className="text-lg font-semibold tabular-nums" aria-label={`Site time ${formatClock(now, timeZone)}`}>
         {formatClock(now, timeZone)}
       </span>

@@ -20,21 +20,24 @@ export function UserMenu({ user }: { user: SessionUser }) {
       <button
         type="button"
         popoverTarget="user-menu"
-        className="flex h-10 items-center gap-2 rounded-md border border-line px-3 text-left hover:bg-panel-2"
+        className="flex h-10 items-center gap-2 rounded-md border border-line px-2.5 text-left hover:bg-panel-2 md:px-3"
         data-testid="user-menu-button"
       >
-        <span className="flex flex-col leading-tight">
+        <span aria-hidden="true" className="font-bold md:hidden">
+          {user.name.split(/\s+/).map((w) => w[0]).join('').slice(0, 2)}
+        </span>
+        <span className="sr-only md:not-sr-only md:flex md:flex-col md:leading-tight">
           <span className="max-w-[11rem] truncate text-sm font-semibold">{user.name}</span>
           <span className="text-xs capitalize text-ink-muted">{user.role}</span>
         </span>
-        <span aria-hidden="true" className="text-ink-muted">
+        <span aria-hidden="true" className="hidden text-ink-muted md:inline">
           ▾
         </span>
       </button>
       <div
         id="user-menu"
         popover="auto"
-        className="fixed inset-auto top-14 right-3 m-0 w-72 rounded-lg border border-line bg-panel p-3 text-ink shadow-xl"
+        className="fixed inset-auto top-14 right-2 m-0 w-72 max-w-[calc(100vw-1rem)] rounded-lg border border-line bg-panel p-3 text-ink shadow-xl"
       >
         <div className="mb-3 border-b border-line pb-2 text-sm">
           <div className="font-semibold">{user.name}</div>

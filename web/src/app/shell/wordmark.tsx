@@ -1,7 +1,8 @@
 import { Link } from 'react-router-dom';
 
 /** Our mark: a short log band with its marker, beside the name. */
-export function Wordmark({ size = 'md', link = true }: { size?: 'md' | 'lg'; link?: boolean }) {
+/** `compact`: the name only from 640 px, so a phone's header keeps room for the alarm counters. */
+export function Wordmark({ size = 'md', link = true, compact = false }: { size?: 'md' | 'lg'; link?: boolean; compact?: boolean }) {
   const big = size === 'lg';
   const content = (
     <>
@@ -10,7 +11,7 @@ export function Wordmark({ size = 'md', link = true }: { size?: 'md' | 'lg'; lin
         <rect x="10" y="10" width="12" height="8" fill="currentColor" fillOpacity="0.35" />
         <path d="M 13 1 L 21 1 L 17 9 Z" fill="currentColor" />
       </svg>
-      <span className={big ? 'text-4xl' : 'text-xl'}>Ferrisight</span>
+      <span className={`${big ? 'text-4xl' : 'text-xl'} ${compact ? 'hidden sm:inline' : ''}`}>Ferrisight</span>
     </>
   );
   const style = 'inline-flex items-center gap-2 font-bold tracking-tight text-ink';

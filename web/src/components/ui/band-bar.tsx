@@ -6,8 +6,8 @@ type BandBarProps = {
   ratio: number | null;
   /** Uncertainty factor: the whisker spans ratio ÷ factor … ratio × factor. */
   factor: number | null;
-  /** Out of band draws the marker in the attention colour (text and shape carry it too). */
-  attention?: boolean;
+  /** The priority of the tank's worst sounding alarm: the marker takes its colour (text and shape carry it too). */
+  attention?: 1 | 2 | 3 | null;
   /** Stale or offline: marker hollow and grey. */
   muted?: boolean;
   /** Width : height of the drawing; match the space it gets so shapes are not stretched. */
@@ -23,7 +23,7 @@ const TRACK_Y = 17;
  * band (not the value), so the marker moves visibly as the ratio changes; values beyond it
  * pin to the edge with an arrow.
  */
-export function BandBar({ band, ratio, factor, attention = false, muted = false, aspect = 7, className = '' }: BandBarProps) {
+export function BandBar({ band, ratio, factor, attention = null, muted = false, aspect = 7, className = '' }: BandBarProps) {
   const W = Math.round(H * aspect);
   const lo = Math.log10(band.low);
   const hi = Math.log10(band.high);
@@ -37,7 +37,7 @@ export function BandBar({ band, ratio, factor, attention = false, muted = false,
   const mx = valid ? x(ratio) : null;
   const offLeft = mx != null && mx < 0;
   const offRight = mx != null && mx > W;
-  const markerColour = muted ? 'var(--fs-offline-ink)' : attention ? 'var(--fs-a2)' : 'var(--fs-ink)';
+  const markerColour = muted ? 'var(--fs-offline-ink)' : attention ? `var(--fs-a${attention})` : 'var(--fs-ink)';
 
   const label = valid
     ? `Ratio ${formatRatio(ratio)} on a band of ${formatRatio(band.low)} to ${formatRatio(band.high)}${factor ? `, uncertain by a factor of ${factor.toFixed(2)}` : ''}`

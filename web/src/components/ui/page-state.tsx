@@ -3,7 +3,7 @@ import { Button } from './button';
 
 export function Loading({ label = 'Loading…' }: { label?: string }) {
   return (
-    <div role="status" className="flex h-full min-h-32 items-center justify-center text-ink-muted">
+    <div role="status" data-testid="loading" className="flex h-full min-h-32 items-center justify-center text-ink-muted">
       {label}
     </div>
   );

@@ -16,7 +16,7 @@ export function PriorityCount({ priority, count, to }: { priority: Priority; cou
   return (
     <Link
       to={to}
-      className={`inline-flex h-7 items-center gap-1.5 rounded-full px-2.5 text-sm font-bold tabular-nums ${style}`}
+      className={`inline-flex h-7 items-center gap-1 rounded-full px-2 text-sm sm:gap-1.5 sm:px-2.5 font-bold tabular-nums ${style}`}
       aria-label={`Priority ${priority} alarms: ${count}`}
     >
       <span>P{priority}</span>

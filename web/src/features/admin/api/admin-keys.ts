@@ -3,4 +3,5 @@ export const adminKeys = {
   users: () => [...adminKeys.all, 'users'] as const,
   simulator: () => [...adminKeys.all, 'simulator'] as const,
   ingestHealth: () => [...adminKeys.all, 'ingest-health'] as const,
+  siteSettings: () => [...adminKeys.all, 'site-settings'] as const,
 };

@@ -31,26 +31,11 @@ export function UsersPanel({ currentUserId }: { currentUserId: number }) {
       ) : users.isError ? (
         <ErrorState title="Users could not be loaded" detail={users.error.message} onRetry={() => users.refetch()} />
       ) : (
-        <div className="overflow-x-auto">
-          <table className="w-full text-left text-sm">
-            <thead className="text-ink-muted">
-              <tr>
-                <th scope="col" className="px-3 py-2 font-semibold">Name</th>
-                <th scope="col" className="px-3 py-2 font-semibold">E-mail</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Role</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Status</th>
-                <th scope="col" className="px-3 py-2 text-right font-semibold">
-                  <span className="sr-only">Actions</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {users.data.map((u) => (
-                <UserRow key={u.id} user={u} isSelf={u.id === currentUserId} />
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <ul aria-label="Users" className="flex flex-col">
+          {users.data.map((u) => (
+            <UserRow key={u.id} user={u} isSelf={u.id === currentUserId} />
+          ))}
+        </ul>
       )}
     </Panel>
   );

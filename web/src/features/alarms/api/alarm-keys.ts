@@ -11,4 +11,5 @@ export const alarmKeys = {
   definitionLists: () => [...alarmKeys.all, 'definitions'] as const,
   definitions: (tankId: number) => [...alarmKeys.definitionLists(), tankId] as const,
   templates: () => [...alarmKeys.all, 'templates'] as const,
+  shelveRules: () => [...alarmKeys.all, 'shelve-rules'] as const,
 };

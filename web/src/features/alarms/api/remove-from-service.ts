@@ -1,7 +1,8 @@
+import type { OosInput } from '@shared/schemas/alarms';
 import { api } from '../../../lib/api-client';
 import { useAlarmMutation, type ActionResult } from './alarm-mutation';
 
-export const removeFromService = ({ definitionId, reason }: { definitionId: number; reason: string }) =>
-  api.post<ActionResult>(`/api/alarms/definitions/${definitionId}/out-of-service`, { reason });
+export const removeFromService = ({ definitionId, input }: { definitionId: number; input: OosInput }) =>
+  api.post<ActionResult>(`/api/alarms/definitions/${definitionId}/out-of-service`, input);
 
 export const useRemoveFromService = () => useAlarmMutation(removeFromService);

@@ -45,7 +45,7 @@ export function AlarmDesk({ aside, ...ctx }: DeskContext & { aside?: ReactNode }
     <div className="mx-auto flex max-w-[120rem] flex-col gap-3">
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-2xl font-bold">Alarm desk</h1>
-        <div role="tablist" aria-label="Alarm desk views" className="flex gap-1">
+        <div role="tablist" aria-label="Alarm desk views" className="flex flex-wrap gap-1">
           {VIEWS.map((v) => (
             <button key={v.id} role="tab" type="button" aria-selected={view === v.id} onClick={() => update({ view: v.id === 'active' ? null : v.id })}
               className={`rounded-md px-3 py-1.5 text-sm font-semibold ${view === v.id ? 'bg-panel-2 text-ink shadow-[inset_0_-3px_0_var(--fs-ink)]' : 'text-ink-muted hover:text-ink'}`}>
@@ -65,7 +65,11 @@ export function AlarmDesk({ aside, ...ctx }: DeskContext & { aside?: ReactNode }
           {view === 'figures' && <AlarmFiguresPanel timeZone={ctx.timeZone} />}
           {view === 'definitions' && <DefinitionsView {...ctx} tankId={filters.tank} onTank={(tank) => update({ tank })} />}
         </div>
-        {selected && <AlarmDetail key={selected} id={selected} role={ctx.role} timeZone={ctx.timeZone} onClose={() => select(null)} />}
+        {selected && (
+          <div className="order-first min-w-0 xl:order-none">
+            <AlarmDetail key={selected} id={selected} role={ctx.role} timeZone={ctx.timeZone} places={ctx.places} onClose={() => select(null)} />
+          </div>
+        )}
       </div>
     </div>
   );

@@ -28,7 +28,7 @@ const List = ({ title, empty, children }: { title: string; empty: boolean; child
   <section aria-label={title}><h3 className="mb-1 text-sm font-bold">{title}</h3>{empty ? <p className="text-sm text-ink-muted">None.</p> : <ul className="text-sm">{children}</ul>}</section>
 );
 
-/** Alarm-rate figures against the published targets (each with its published source). */
+/** Alarm-rate figures against their targets, each labelled with its publication or as common practice. */
 export function AlarmFiguresPanel({ timeZone }: { timeZone: string }) {
   const [hours, setHours] = useState('24');
   // The window moves on once a minute (a new query key), so the figures stay current on a wall screen.

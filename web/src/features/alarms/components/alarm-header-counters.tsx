@@ -7,12 +7,13 @@ import { SoundToggle } from './sound-toggle';
 export function AlarmHeaderCounters({ deskPath }: { deskPath: string }) {
   const alarms = useActiveAlarms().data?.alarms ?? [];
   const count = (p: 1 | 2 | 3) => alarms.filter((a) => a.priority === p && isAnnunciated(a.state)).length;
-  const waiting = (p: 1 | 2 | 3) => alarms.some((a) => a.priority === p && isUnacknowledged(a.state));
+  const unacknowledged = (p: 1 | 2 | 3) => alarms.filter((a) => a.priority === p && isUnacknowledged(a.state)).length;
+  const waiting = (p: 1 | 2 | 3) => unacknowledged(p) > 0;
   return (
     <div className="flex items-center gap-1.5">
       <nav aria-label="Alarms by priority" className="flex items-center gap-1.5" data-testid="alarm-counters">
         {([1, 2, 3] as const).map((p) => (
-          <span key={p} className={waiting(p) ? 'pulse-attention rounded-full' : ''} data-priority={p} data-count={count(p)}>
+          <span key={p} className={waiting(p) ? 'pulse-attention rounded-full' : ''} data-priority={p} data-count={count(p)} data-waiting={waiting(p) ? 'true' : 'false'} data-unack={unacknowledged(p)}>
             <PriorityCount priority={p} count={count(p)} to={deskPath} />
           </span>
         ))}

@@ -1,9 +1,9 @@
 import { useState } from 'react';
 import type { AlarmView, DefinitionView } from '@shared/schemas/alarms';
-import { useRemoveFromService } from '../api/remove-from-service';
 import { useReturnToService } from '../api/return-to-service';
 import { DefinitionForm } from './definition-form';
 import { DefinitionRow, type RowAction } from './definition-row';
+import { OutOfServiceForm } from './out-of-service-form';
 import { ReasonForm } from './reason-form';
 
 type Props = {
@@ -17,13 +17,11 @@ type Props = {
 /** A tank's definitions, highest priority first; at most one form open at a time, under its row. */
 export function DefinitionTable({ definitions, alarms, timeZone, canEdit, onSaved }: Props) {
   const [open, setOpen] = useState<{ id: number; action: RowAction } | null>(null);
-  const oos = useRemoveFromService();
   const rts = useReturnToService();
   const byDefinition = new Map(alarms.map((a) => [a.definitionId, a]));
   const sorted = [...definitions].sort((a, b) => a.priority - b.priority || a.id - b.id);
   const close = () => setOpen(null);
   const start = (id: number, action: RowAction) => {
-    oos.reset();
     rts.reset();
     setOpen({ id, action });
   };
@@ -33,11 +31,7 @@ export function DefinitionTable({ definitions, alarms, timeZone, canEdit, onSave
       return <DefinitionForm key={d.id} definition={d} onDone={(saved) => (close(), saved && onSaved(`Saved “${saved.label}” on ${saved.tankTag}. The reason is in the change record.`))} />;
     }
     if (open?.action === 'oos') {
-      return (
-        <ReasonForm label={`Why take “${d.label}” out of service?`} action="Take out of service" minLength={3} pending={oos.isPending} error={oos.error} onCancel={close}
-          hint="For example: probe pulled for cleaning. The alarm stays silent until it is returned to service."
-          onSubmit={(reason) => oos.mutate({ definitionId: d.id, reason }, { onSuccess: () => (close(), onSaved(`“${d.label}” on ${d.tankTag} is out of service.`)) })} />
-      );
+      return <OutOfServiceForm definitionId={d.id} onDone={(saved) => (close(), saved && onSaved(`“${d.label}” on ${d.tankTag} is out of service.`))} />;
     }
     return (
       <ReasonForm label="What was done" action="Return to service" minLength={3} pending={rts.isPending} error={rts.error} onCancel={close}

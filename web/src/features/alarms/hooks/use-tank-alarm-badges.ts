@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import type { AlarmView } from '@shared/schemas/alarms';
-import type { TankAlarmBadge, TankAlarms } from '../../../lib/tank-alarms';
+import type { TankAlarmBadge, TankAlarms, TankHeldAlarms } from '../../../lib/tank-alarms';
 import { useActiveAlarms } from '../api/get-active-alarms';
 import { isAnnunciated, isUnacknowledged } from '../components/alarm-states';
 
@@ -27,7 +27,23 @@ export function tankSilenced(alarms: readonly AlarmView[]): Map<number, number> 
   return out;
 }
 
+/** Per tank, its shelved, out-of-service and suppressed alarms, for the marks on tiles. */
+export function tankHeld(alarms: readonly AlarmView[]): Map<number, TankHeldAlarms> {
+  const out = new Map<number, TankHeldAlarms>();
+  for (const a of alarms) {
+    if (isAnnunciated(a.state) || a.state === 'normal') continue;
+    const h = out.get(a.tankId) ?? { shelved: 0, outOfService: 0, suppressed: 0, shelvedUntil: null };
+    if (a.state === 'shelved') {
+      h.shelved += 1;
+      if (a.shelvedUntil && (!h.shelvedUntil || a.shelvedUntil < h.shelvedUntil)) h.shelvedUntil = a.shelvedUntil;
+    } else if (a.state === 'out-of-service') h.outOfService += 1;
+    else h.suppressed += 1;
+    out.set(a.tankId, h);
+  }
+  return out;
+}
+
 export function useTankAlarmBadges(): TankAlarms {
   const alarms = useActiveAlarms().data?.alarms;
-  return useMemo(() => ({ badges: tankBadges(alarms ?? []), silenced: tankSilenced(alarms ?? []) }), [alarms]);
+  return useMemo(() => ({ badges: tankBadges(alarms ?? []), silenced: tankSilenced(alarms ?? []), held: tankHeld(alarms ?? []) }), [alarms]);
 }

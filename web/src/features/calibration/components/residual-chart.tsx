@@ -3,6 +3,7 @@ import UplotReact from 'uplot-react';
 import type uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import type { FitPoint } from '@shared/schemas/calibration';
+import { ChartLegend } from '../../../components/ui/chart-legend';
 import { useTheme } from '../../../lib/theme';
 import { readColours, useWidth } from './chart-kit';
 
@@ -32,7 +33,7 @@ export function ResidualChart({ points, timeZone }: { points: FitPoint[]; timeZo
       splits.map((s) => (incr < 86_400 ? `${timeFmt.format(s * 1000)}\n${dateFmt.format(s * 1000)}` : dateFmt.format(s * 1000)));
     const dots = (fill: boolean, stroke: string) => ({ show: true, size: 8, width: 1.5, stroke, fill: fill ? stroke : 'transparent' });
     return {
-      width, height: 240, legend: { show: true }, cursor: { drag: { x: false, y: false } },
+      width, height: 240, legend: { show: false }, cursor: { drag: { x: false, y: false } },
       scales: { x: { time: true } },
       axes: [
         { stroke: muted, grid, font: '12px Barlow, system-ui', values: tick, size: 44 },
@@ -48,8 +49,18 @@ export function ResidualChart({ points, timeZone }: { points: FitPoint[]; timeZo
   }, [width, timeZone, colours]);
 
   return (
-    <div ref={box} className="w-full" role="img" aria-label={`Residuals of ${points.length} assays in mV; the table below lists them`}>
-      {width > 0 && <UplotReact options={options} data={data} />}
+    <div className="flex w-full flex-col gap-1">
+      <div ref={box} className="w-full" role="img" aria-label={`Residuals of ${points.length} assays in mV; the table below lists them`}>
+        {width > 0 && <UplotReact options={options} data={data} />}
+      </div>
+      <ChartLegend
+        label="Residual chart legend"
+        items={[
+          { label: 'New fit', mark: { kind: 'dot', filled: true, colour: colours.ink } },
+          { label: 'Calibration in force', mark: { kind: 'dot', filled: false, colour: colours.muted } },
+          { label: '0 mV', mark: { kind: 'line', colour: colours.muted, dashed: true } },
+        ]}
+      />
     </div>
   );
 }

@@ -28,7 +28,7 @@ export function CircuitSummary({ circuit, statuses, siteName }: { circuit: Circu
       <div>
         <div className="text-xs text-ink-muted">Worst tank</div>
         {worst ? (
-          <div className="font-semibold text-attention-2-ink">
+          <div className="font-semibold text-ink">
             <span aria-hidden="true">{worst.status.position === 'below' ? '▼ ' : '▲ '}</span>
             {worst.tag} {worst.status.position === 'below' ? 'below' : 'above'} band
           </div>

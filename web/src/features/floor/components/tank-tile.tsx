@@ -6,9 +6,11 @@ import { BandState } from '../../../components/ui/band-state';
 import { FreshnessLabel } from '../../../components/ui/freshness-label';
 import { Quantity } from '../../../components/ui/quantity';
 import { PriorityPill } from '../../../components/ui/priority-pill';
-import { useTankAlarm, type TankAlarmBadge } from '../../../lib/tank-alarms';
+import { useTankAlarm, useTankHeldAlarms, type TankAlarmBadge } from '../../../lib/tank-alarms';
 import { formatAge, formatEhV, formatMv, formatMvRange, formatRatio, formatTempC } from '../../../lib/format';
 import type { TankStatus } from './tank-status';
+import { marksText, tileLook } from './tile-look';
+import { TileMarks } from './tile-marks';
 import { TileSparkline } from './tile-sparkline';
 
 // Type scales with the tile (container units), so one layout serves a 1920×1080 wall and a 1366×768 laptop.
@@ -16,7 +18,7 @@ const TAG = 'text-[length:clamp(1.1rem,min(15cqw,11cqh),3.25rem)]';
 const RATIO = 'text-[length:clamp(1.6rem,min(28cqw,19cqh),5.5rem)]';
 const DETAIL = 'text-[length:clamp(0.8rem,min(7.6cqw,4.5cqh),1.5rem)]';
 
-function describe(tank: TankSummary, status: TankStatus): string {
+export function describe(tank: TankSummary, status: TankStatus): string {
   const parts = [`Tank ${tank.tag}, ${tank.name}`];
   if (status.kind === 'offline') parts.push('out of service');
   else if (status.kind === 'no-probe') parts.push('no probe fitted');
@@ -31,7 +33,7 @@ function describe(tank: TankSummary, status: TankStatus): string {
 }
 
 /** Worst open alarm of the tank: pill by priority (shape + text), count, pulsing while unacknowledged. */
-function TileAlarm({ alarm }: { alarm: TankAlarmBadge }) {
+export function TileAlarm({ alarm }: { alarm: TankAlarmBadge }) {
   return (
     <span className="ml-auto flex shrink-0 items-center gap-1" data-testid="tile-alarm" data-priority={alarm.priority} data-unack={alarm.unacknowledged} title={alarm.label}>
       <PriorityPill priority={alarm.priority} pulse={alarm.unacknowledged > 0} />
@@ -52,22 +54,19 @@ function Row({ label, children }: { label: string; children: ReactNode }) {
 export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: TankStatus; nowMs: number }) {
   const latest = tank.latest;
   const alarm = useTankAlarm(tank.id);
-  const out = status.kind === 'live' && status.position !== 'in';
+  const held = useTankHeldAlarms(tank.id);
   const stale = status.kind === 'stale';
-  const frame =
-    status.kind === 'offline'
-      ? 'hatch border border-dashed border-line-strong'
-      : out
-        ? 'border-[3px] border-attention-2'
-        : 'border border-line';
+  const { frame, priority, marks } = tileLook(status, alarm, held);
 
   return (
     <Link
       to={`/tanks/${tank.id}`}
-      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}`}
+      aria-label={`${alarm ? `Priority ${alarm.priority} alarm: ${alarm.label}. ` : ''}${describe(tank, status)}${marksText(marks)}`}
       data-testid="tank-tile"
       data-tag={tank.tag}
       data-ts={latest?.ts ?? ''}
+      data-priority={priority ?? ''}
+      data-stale={stale ? 'true' : 'false'}
       className={`tile-box block h-full min-w-0 overflow-hidden rounded-lg bg-panel hover:bg-panel-2 ${frame}`}
     >
       <div className="flex h-full flex-col gap-[1.6cqh] p-[5cqw]">
@@ -76,6 +75,7 @@ export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: T
           <span className={`truncate text-ink-muted ${DETAIL}`}>{tank.name}</span>
           {alarm && <TileAlarm alarm={alarm} />}
         </div>
+        <TileMarks marks={marks} held={held} nowMs={nowMs} />
 
         {status.kind === 'offline' || status.kind === 'no-probe' || status.kind === 'no-reading' ? (
           <div className={`mt-[4cqh] font-semibold text-offline-ink ${DETAIL}`}>
@@ -96,7 +96,7 @@ export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: T
               {stale ? (
                 <span className="text-offline-ink">Not live</span>
               ) : (
-                status.position && <BandState position={status.position} />
+                status.position && <BandState position={status.position} priority={priority} />
               )}
               {status.outsideRange && (
                 <span className="ml-2 font-semibold text-attention-3-ink">
@@ -109,7 +109,7 @@ export function TankTile({ tank, status, nowMs }: { tank: TankSummary; status: T
                 </span>
               )}
             </div>
-            <BandBar band={tank.band} ratio={latest?.ratio ?? null} factor={status.factor} attention={out} muted={stale} />
+            <BandBar band={tank.band} ratio={latest?.ratio ?? null} factor={status.factor} attention={status.position !== 'in' ? priority : null} muted={stale} />
             <div className="min-h-0 flex-1">
               <TileSparkline tankId={tank.id} band={tank.band} latest={latest} nowMs={nowMs} muted={stale} />
             </div>

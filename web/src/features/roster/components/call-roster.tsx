@@ -11,7 +11,7 @@ import { ShiftTable } from './shift-table';
 const MANAGERS: readonly Role[] = ['supervisor', 'admin'];
 const DAY = 86_400_000;
 
-/** Call roster: who is on call now, the next two weeks of shifts, and the escalation policy. */
+/** Call roster: who is rostered this hour, the next two weeks of shifts, and the call-out steps. */
 export function CallRoster({ role, timeZone }: { role: Role; timeZone: string }) {
   const now = useNow();
   const hour = Math.floor(now / 3_600_000) * 3_600_000;

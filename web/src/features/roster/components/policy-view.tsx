@@ -28,8 +28,8 @@ export function PolicyView({ canManage = false }: { canManage?: boolean }) {
     setSaved(ok ? p : null);
   };
   return (
-    <Panel title="Escalation policy">
-      {q.isError && <p role="alert" className="mb-2 text-sm text-attention-1-ink">The policy could not be loaded: {q.error.message}</p>}
+    <Panel title="Call-out steps">
+      {q.isError && <p role="alert" className="mb-2 text-sm text-attention-1-ink">The call-out steps could not be loaded: {q.error.message}</p>}
       <ul className="flex flex-col gap-3 text-sm" data-testid="policy">
         {PRIORITIES.map((p) => {
           const mine = steps.filter((s) => s.priority === p);
@@ -42,7 +42,7 @@ export function PolicyView({ canManage = false }: { canManage?: boolean }) {
                   {mine.length === 0 ? <span className="text-ink-muted">no e-mail</span> : stepsText(mine)}
                 </p>
                 {canManage && editing === null && q.data && (
-                  <Button size="sm" onClick={() => (setSaved(null), setEditing(p))} aria-label={`Change escalation for ${PRIORITY_LABEL[p]}`}>Change…</Button>
+                  <Button size="sm" onClick={() => (setSaved(null), setEditing(p))} aria-label={`Change call-out steps for ${PRIORITY_LABEL[p]}`}>Change…</Button>
                 )}
               </div>
               {saved === p && <Notice tone="info">Saved. The reason is in the change record.</Notice>}
@@ -53,7 +53,7 @@ export function PolicyView({ canManage = false }: { canManage?: boolean }) {
           );
         })}
       </ul>
-      <p className="mt-3 text-sm text-ink-muted">Escalation e-mail stops once the alarm is acknowledged, on screen or from the link in the mail.</p>
+      <p className="mt-3 text-sm text-ink-muted">Call-out e-mail stops once the alarm is acknowledged, on screen or from the link in the mail. Each person gets a mail of their own.</p>
     </Panel>
   );
 }

@@ -2,6 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { serverNow } from '../../../lib/clock';
+import { formatDuration } from '../../../lib/format';
 import { isoToSiteLocal, siteLocalToIso } from '@shared/time/site-time';
 import { PRESETS, type Preset, type TrendRange } from '../api/get-trend';
 
@@ -37,7 +38,24 @@ function CustomRange({ range, timeZone, onApply }: { range: TrendRange; timeZone
 }
 
 /** 1 h … 30 d end "now" and follow live; a custom range is fixed. */
-export function RangePicker({ range, timeZone, onChange }: { range: TrendRange; timeZone: string; onChange: (r: TrendRange) => void }) {
+/** What the trend's end means: following live readings, stale (none arriving), or a fixed range. */
+function LiveState({ range, staleForS }: { range: TrendRange; staleForS: number | null | undefined }) {
+  const state = range.kind !== 'preset' ? 'fixed' : staleForS !== undefined ? 'stale' : 'live';
+  const text =
+    state === 'fixed'
+      ? 'Fixed range.'
+      : state === 'stale'
+        ? `Stale: no new reading${staleForS != null ? ` for ${formatDuration(staleForS)}` : ''}; the trend ends at the last one received.`
+        : 'Live: new readings are added as they arrive.';
+  return (
+    <span className={`ml-2 text-sm ${state === 'stale' ? 'font-semibold text-offline-ink' : 'text-ink-muted'}`} data-testid="trend-live-state" data-state={state}>
+      {text}
+    </span>
+  );
+}
+
+/** `staleForS`: set (seconds, or null when unknown) while the tank's readings have stopped arriving. */
+export function RangePicker({ range, timeZone, onChange, staleForS }: { range: TrendRange; timeZone: string; onChange: (r: TrendRange) => void; staleForS?: number | null }) {
   const [customOpen, setCustomOpen] = useState(range.kind === 'custom');
   const active = range.kind === 'preset' ? range.preset : 'custom';
   const pill = (on: boolean) =>
@@ -63,7 +81,7 @@ export function RangePicker({ range, timeZone, onChange }: { range: TrendRange; 
         <button type="button" aria-pressed={active === 'custom'} aria-expanded={customOpen} className={pill(active === 'custom' || customOpen)} onClick={() => setCustomOpen((o) => !o)}>
           Custom…
         </button>
-        <span className="ml-2 text-sm text-ink-muted">{range.kind === 'preset' ? 'Live: new readings are added as they arrive.' : 'Fixed range.'}</span>
+        <LiveState range={range} staleForS={staleForS} />
       </div>
       {customOpen && <CustomRange range={range} timeZone={timeZone} onApply={onChange} />}
     </div>

@@ -60,9 +60,9 @@ export function TankFacts({ tank, timeZone, freshness, alarmsHref, definitionsHr
         <div className="flex items-baseline gap-2">
           <span className={`text-5xl font-bold tabular-nums ${stale ? 'text-offline-ink line-through' : ''}`}>{formatRatio(latest?.ratio)}</span>
           <span className="text-ink-muted">Fe³⁺/Fe²⁺</span>
-          <span className="ml-auto">{tank.offline ? <span className="text-offline-ink">Out of service</span> : position && !stale && <BandState position={position} />}</span>
+          <span className="ml-auto">{tank.offline ? <span className="text-offline-ink">Out of service</span> : position && !stale && <BandState position={position} priority={alarm?.priority} />}</span>
         </div>
-        <BandBar band={band} ratio={latest?.ratio ?? null} factor={factor} attention={!stale && position != null && position !== 'in'} muted={stale} aspect={18} />
+        <BandBar band={band} ratio={latest?.ratio ?? null} factor={factor} attention={!stale && position != null && position !== 'in' ? (alarm?.priority ?? null) : null} muted={stale} aspect={18} />
         {latest && (
           <dl className="grid grid-cols-4 gap-2 text-sm">
             {[

@@ -13,7 +13,7 @@ import { RangePicker } from './range-picker';
 import { TankFacts } from './tank-facts';
 import { TrendCharts } from './trend-charts';
 
-/** Trends on the left two thirds, facts on the right third. */
+/** Trends on the left two thirds, facts on the right third; stacked, charts full width, on narrow screens. */
 export function TankView({ tankId, alarmsHref, definitionsHref }: { tankId: number; alarmsHref?: string; definitionsHref?: string }) {
   const detail = useTank(tankId);
   const [range, setRange] = useTrendRange();
@@ -44,8 +44,8 @@ export function TankView({ tankId, alarmsHref, definitionsHref }: { tankId: numb
     : { ageS: null, stale: true };
 
   return (
-    <div className="grid h-full min-h-0 grid-cols-1 gap-4 lg:grid-cols-3">
-      <div className="flex min-h-0 flex-col gap-3 lg:col-span-2">
+    <div className="grid min-h-0 grid-cols-1 gap-4 lg:h-full lg:grid-cols-3">
+      <div className="flex min-h-0 min-w-0 flex-col gap-3 lg:col-span-2">
         <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
           <Link to="/" className="text-sm text-info-ink underline-offset-2 hover:underline">
             ← Floor
@@ -57,7 +57,7 @@ export function TankView({ tankId, alarmsHref, definitionsHref }: { tankId: numb
           </span>
         </div>
         <LiveStatusNotice />
-        <RangePicker key={`picker-${rangeKey(range)}`} range={range} timeZone={site.timeZone} onChange={setRange} />
+        <RangePicker key={`picker-${rangeKey(range)}`} range={range} timeZone={site.timeZone} onChange={setRange} staleForS={freshness.stale ? freshness.ageS : undefined} />
         {(detail.isError || (trend.isError && trend.data)) && (
           <Notice tone="attention">
             <span className="font-semibold">Refresh failed:</span> {(detail.error ?? trend.error)?.message.replace(/\.$/, '')}. Showing the last
@@ -80,7 +80,7 @@ export function TankView({ tankId, alarmsHref, definitionsHref }: { tankId: numb
           <Loading label="Loading the trend…" />
         )}
       </div>
-      <aside aria-label="Facts" className="min-h-0 overflow-auto rounded-lg border border-line bg-panel p-4">
+      <aside aria-label="Facts" className="min-h-0 min-w-0 rounded-lg border border-line bg-panel p-4 lg:overflow-auto">
         <TankFacts tank={tank} timeZone={site.timeZone} freshness={freshness} alarmsHref={alarmsHref} definitionsHref={definitionsHref} />
       </aside>
     </div>

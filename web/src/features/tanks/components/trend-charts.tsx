@@ -7,7 +7,8 @@ import { uncertaintyFactor } from '../../../lib/redox-view';
 import { useTheme } from '../../../lib/theme';
 import type { AssayPoint } from '../api/get-tank-assays';
 import { useElementSize } from '../hooks/use-element-size';
-import { orpChartOptions, ratioChartOptions, readChartColours, tempChartOptions, type ChartGroup } from './chart-options';
+import { orpChartOptions, ratioChartOptions, readChartColours, tempChartOptions, type ChartColours, type ChartGroup } from './chart-options';
+import { ChartLegend, type LegendMark } from '../../../components/ui/chart-legend';
 import { TrendReadout } from './trend-readout';
 import { expectedStepS, withGaps } from '../utils/trend-gaps';
 
@@ -16,6 +17,17 @@ type Props = { tankId: number; trend: TrendResponse; band: Band; probe: ProbeInf
 const NO_ASSAYS: AssayPoint[] = [];
 
 const GAP = 8;
+
+/** The ratio chart's marks, in the colours the canvas uses. */
+function legendItems(c: ChartColours, buckets: boolean, assays: number, toleranceMv: number | undefined): Array<{ label: string; mark: LegendMark }> {
+  return [
+    { label: 'Ratio', mark: { kind: 'line', colour: c.line } },
+    { label: 'Band (between dashed lines)', mark: { kind: 'fill', colour: c.band, edge: c.edge } },
+    { label: toleranceMv ? `Probe tolerance (±${toleranceMv} mV)` : 'Probe tolerance', mark: { kind: 'fill', colour: c.uncertainty } },
+    ...(buckets ? [{ label: 'Bucket range', mark: { kind: 'fill', colour: c.bucket } as LegendMark }] : []),
+    ...(assays > 0 ? [{ label: `Lab assay (${assays})`, mark: { kind: 'diamond', colour: c.line, fill: c.assayFill } as LegendMark }] : []),
+  ];
+}
 
 /** Ratio, ORP and temperature over the same time axis; drag to zoom, double-click to reset. */
 export function TrendCharts({ tankId, trend, band, probe, timeZone, assays = NO_ASSAYS }: Props) {
@@ -69,7 +81,8 @@ export function TrendCharts({ tankId, trend, band, probe, timeZone, assays = NO_
 
   return (
     <div className="flex min-h-0 flex-1 flex-col gap-2">
-      <TrendReadout trend={shown} factors={factors} idx={cursorIdx} timeZone={timeZone} zoomed={zoomed} assays={assays.length} />
+      <TrendReadout trend={shown} factors={factors} idx={cursorIdx} timeZone={timeZone} zoomed={zoomed} />
+      <ChartLegend label="Ratio chart legend" items={legendItems(colours, trend.resolution !== 'raw', assays.length, probe?.toleranceMv)} />
       <div ref={boxRef} className="relative min-h-[26rem] flex-1" data-testid="trend-charts">
         {empty && (
           <div className="absolute inset-0 z-10 flex items-center justify-center text-ink-muted">No readings in this range.</div>

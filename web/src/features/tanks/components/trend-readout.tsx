@@ -5,8 +5,8 @@ import { formatDateTime, formatMv, formatRatio, formatTempC } from '../../../lib
 
 const RESOLUTION: Record<TrendResponse['resolution'], string> = {
   raw: 'every reading',
-  '1m': '1 min buckets (geometric mean; light fill: bucket range)',
-  '1h': '1 h buckets (geometric mean; light fill: bucket range)',
+  '1m': '1 min buckets (geometric mean)',
+  '1h': '1 h buckets (geometric mean)',
 };
 
 /** Values under the cursor (or the newest point), and how to read the charts. */
@@ -16,15 +16,12 @@ export function TrendReadout({
   idx,
   timeZone,
   zoomed,
-  assays = 0,
 }: {
   trend: ChartTrend;
   factors: Array<number | null>;
   idx: number | null;
   timeZone: string;
   zoomed: boolean;
-  /** How many lab assays are drawn on the ratio chart. */
-  assays?: number;
 }) {
   const i = idx ?? trend.t.length - 1;
   const has = i >= 0 && i < trend.t.length;
@@ -51,7 +48,7 @@ export function TrendReadout({
         <span className="text-ink-muted">No values</span>
       )}
       <span className="ml-auto text-ink-muted">
-        Shown: {RESOLUTION[trend.resolution]}. Band: light fill between dashed lines; darker fill: probe tolerance; a break in the line: no readings.{assays > 0 ? ` ◇ lab assay (${assays}).` : ''} {zoomed ? 'Double-click to reset zoom.' : 'Drag to zoom.'}
+        Shown: {RESOLUTION[trend.resolution]}; a break in the line: no readings. {zoomed ? 'Double-click to reset zoom.' : 'Drag to zoom.'}
       </span>
     </div>
   );
