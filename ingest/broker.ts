@@ -18,6 +18,8 @@ async function main(): Promise<void> {
     servicePassword: cfg.SERVICE_MQTT_PASSWORD,
     serviceUser: cfg.SERVICE_MQTT_USER,
     maxConnections: cfg.MQTT_MAX_CONNECTIONS,
+    maxConnectionsPerGateway: cfg.MQTT_MAX_CONNECTIONS_PER_GATEWAY,
+    reservedServiceConnections: cfg.MQTT_RESERVED_SERVICE_CONNECTIONS,
     log,
   });
   let stopping = false;

@@ -10,7 +10,7 @@ import { LivePublisher, toTankLive } from './live.ts';
 import { IngestMetrics } from './metrics.ts';
 import { startIntake, type AckMode, type Intake } from './mqtt-intake.ts';
 import { ProbeCache } from '../api/src/modules/readings/probe-cache.ts';
-import { deleteExpiredReadings } from '../api/src/modules/readings/retention.repository.ts';
+import { deleteExpiredReadings, deleteExpiredRefusals } from '../api/src/modules/readings/retention.repository.ts';
 import { Lease } from '../api/src/cluster/lease.ts';
 import { loadTags, SliceSubscriptions, type SlicePlan } from './slices.ts';
 
@@ -22,6 +22,8 @@ export type WorkerOptions = {
   clientId: string;
   topicFilter?: string;
   retentionDays?: number;
+  /** Dead letters and conflicts older than this are deleted (default 30). */
+  deadLetterRetentionDays?: number;
   ackMode?: AckMode;
   lingerMs?: number;
   maxReadingsPerFlush?: number;
@@ -110,6 +112,8 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
     if (retentionRunning || (retentionLease && !retentionLease.held)) return;
     retentionRunning = true;
     await deleteExpiredReadings(pool, retentionDays, log).catch((err: Error) => log.warn({ err: err.message }, 'retention run failed'));
+    await deleteExpiredRefusals(pool, opts.deadLetterRetentionDays ?? 30, log)
+      .catch((err: Error) => log.warn({ err: err.message }, 'dead-letter retention run failed'));
     retentionRunning = false;
   };
   const timers = [

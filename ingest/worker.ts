@@ -26,6 +26,7 @@ async function main(): Promise<void> {
     leaseTtlMs: cfg.LEASE_TTL_S * 1000,
     topicFilter: cfg.INGEST_TOPIC_FILTER,
     retentionDays: cfg.RAW_RETENTION_DAYS,
+    deadLetterRetentionDays: cfg.DEAD_LETTER_RETENTION_DAYS,
     ackMode: cfg.INGEST_ACK_MODE,
     lingerMs: cfg.INGEST_FLUSH_MS,
     maxReadingsPerFlush: cfg.INGEST_FLUSH_MAX_READINGS,

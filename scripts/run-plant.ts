@@ -12,6 +12,9 @@
  *   MQTT_URL             mqtt(s)://… of an existing broker: no embedded broker
  *   SMTP_URL             smtp(s)://… of a real mail server: no mail catcher
  *   SIMULATOR=on         'off' on a real site: no simulated plant (simulators/plant.ts)
+ *   DEMO                 'off': no demo plant or demo users; an empty database gets a one-time
+ *                        link for its first admin. Default: off when SIMULATOR and DEMO_HISTORY
+ *                        are both off, on otherwise
  *   FERRISIGHT_DATA_DIR=.data
  *                        where this instance keeps everything (MariaDB, broker sessions,
  *                        secrets, caught mail, uploads, supervisor.json); relative to the
@@ -80,6 +83,15 @@ try {
 const SIMULATOR = (env.SIMULATOR ?? 'on').toLowerCase();
 if (SIMULATOR !== 'on' && SIMULATOR !== 'off') {
   fail(`SIMULATOR=${env.SIMULATOR} must be on or off`);
+  process.exit(1);
+}
+const DEMO = (env.DEMO ?? (SIMULATOR === 'off' && (env.DEMO_HISTORY ?? 'on').toLowerCase() === 'off' ? 'off' : 'on')).toLowerCase();
+if (DEMO !== 'on' && DEMO !== 'off') {
+  fail(`DEMO=${env.DEMO} must be on or off`);
+  process.exit(1);
+}
+if (DEMO === 'off' && SIMULATOR === 'on') {
+  fail('SIMULATOR=on needs the demo plant: set SIMULATOR=off with DEMO=off');
   process.exit(1);
 }
 if (env.INGEST_SHARED_GROUP && !env.MQTT_URL) {
@@ -292,6 +304,7 @@ async function main(): Promise<void> {
     NODE_ENV: DEV ? 'development' : 'production',
     FERRISIGHT_DATA_DIR: DATA_DIR,
     WEB_DIST,
+    DEMO,
   };
   const tsx = (file: string) => [process.execPath, '--import', 'tsx', file];
 
@@ -415,7 +428,12 @@ function banner(ms: number): void {
   const lines = ['', `Ferrisight is running: ${url}   (started in ${seconds(ms)})`];
   if (CLUSTER) lines.push(`Cluster: ${API_NODES} API nodes (ports ${API_NODE_PORT}–${API_NODE_PORT + API_NODES - 1}) behind ${PORT}, ${INGEST_WORKERS} ingest workers, socket.io over Redis`);
   const usersFile = path.join(ROOT, 'scripts/demo-users.json');
-  if (existsSync(usersFile)) {
+  const firstRunFile = path.join(DATA_DIR, 'first-run-link.txt');
+  if (DEMO === 'off' && existsSync(firstRunFile)) {
+    lines.push('No one can sign in yet. Create the first admin with this one-time link (valid 24 h):');
+    lines.push(`  ${readFileSync(firstRunFile, 'utf8').trim()}`);
+  }
+  if (DEMO === 'on' && existsSync(usersFile)) {
     try {
       const users = JSON.parse(readFileSync(usersFile, 'utf8')) as { role: string; email: string; password: string }[];
       if (Array.isArray(users) && users.length) {

@@ -8,6 +8,7 @@ import type { Role } from '../shared/schemas/auth.ts';
 import { Calibration, Circuit, Device, Probe, Site, Tank, User, initModels } from '../api/src/db/models.ts';
 import { createSequelize } from '../api/src/db/sequelize.ts';
 import { BCRYPT_COST } from '../api/src/modules/auth/auth.service.ts';
+import { firstRunRepository } from '../api/src/modules/first-run/first-run.repository.ts';
 import { seedDemoAlarms } from './seed/demo-alarms.ts';
 import { seedDemoHistory, type DemoHistorySummary } from './seed/demo-history.ts';
 import { DEMO_CIRCUITS, DEMO_DEVICE, DEMO_SITE } from './seed/demo-plant.ts';
@@ -58,9 +59,39 @@ export async function seedDemo(databaseUrl: string, simDevicePassword: string, o
   }
 }
 
+/**
+ * A real site (DEMO=off): no demo plant and no demo users. While the database has no users,
+ * each start writes a fresh one-time link for creating the first admin to
+ * DATA_DIR/first-run-link.txt (the start banner prints it); once someone exists, the file goes.
+ */
+export async function prepareFirstRun(databaseUrl: string, publicUrl: string, dataDir: string): Promise<string | null> {
+  const sequelize = createSequelize(databaseUrl, 1);
+  initModels(sequelize);
+  const file = path.join(dataDir, 'first-run-link.txt');
+  try {
+    const token = await firstRunRepository.issueToken(sequelize);
+    if (!token) {
+      fs.rmSync(file, { force: true });
+      return null;
+    }
+    const link = `${publicUrl.replace(/\/$/, '')}/first-run#token=${token}`;
+    fs.mkdirSync(dataDir, { recursive: true });
+    fs.writeFileSync(file, `${link}\n`, { mode: 0o600 });
+    return link;
+  } finally {
+    await sequelize.close();
+  }
+}
+
 if (process.argv[1] === fileURLToPath(import.meta.url)) {
   const url = process.env.DATABASE_URL;
   const pw = process.env.SIM_DEVICE_PASSWORD;
+  if (url && process.env.DEMO === 'off') {
+    const publicUrl = process.env.PUBLIC_URL ?? `http://127.0.0.1:${process.env.PORT ?? 8470}`;
+    const link = await prepareFirstRun(url, publicUrl, process.env.DATA_DIR ?? '.data');
+    process.stdout.write(link ? 'seed: no demo data (DEMO=off); the first admin is created with a one-time link\n' : 'seed: no demo data (DEMO=off)\n');
+    process.exit(0);
+  }
   if (!url || !pw) {
     process.stderr.write('DATABASE_URL and SIM_DEVICE_PASSWORD must be set\n');
     process.exit(1);

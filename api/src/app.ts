@@ -19,6 +19,9 @@ import { authRouter } from './modules/auth/auth.router.ts';
 import { ackRouter } from './modules/notify/ack.router.ts';
 import { mailRouter } from './modules/notify/mail.router.ts';
 import { plantRouter } from './modules/plant/plant.router.ts';
+import { plantSetupRouter } from './modules/plant-setup/plant-setup.router.ts';
+import { deadLettersRouter } from './modules/dead-letters/dead-letters.router.ts';
+import { firstRunRouter } from './modules/first-run/first-run.router.ts';
 import { rosterRouter } from './modules/roster/roster.router.ts';
 import { usersRouter } from './modules/users/users.router.ts';
 import { digestRouter } from './modules/digest/digest.router.ts';
@@ -40,6 +43,8 @@ export type AppDeps = {
   rawRetentionDays?: number;
   /** JWT_SECRET: signs the acknowledge links in escalation mail (omitted: links show "not set up"). */
   ackSecret?: string;
+  /** Dead letters and conflicts are kept this many days (shown on their screen); default 30. */
+  deadLetterRetentionDays?: number;
   /** Where the local mail catcher stores what it receives (FERRISIGHT_DATA_DIR/mail). */
   mailDir?: string;
 };
@@ -61,6 +66,9 @@ export function createApp(deps: AppDeps): Express {
   const mounts: Array<[string, Router]> = [
     ['/api/auth', authRouter(deps.auth, { secureCookie: deps.secureCookie ?? false, ttlS: deps.ttlS })],
     ['/api/users', usersRouter()],
+    ['/api/first-run', firstRunRouter()],
+    ['/api/plant-setup', plantSetupRouter(deps.bus)],
+    ['/api/dead-letters', deadLettersRouter({ retentionDays: deps.deadLetterRetentionDays ?? 30 })],
     ['/api', plantRouter()],
     ['/api/admin', adminRouter(deps.bus)],
     ['/api/admin/mail', mailRouter(deps.mailDir)],

@@ -31,6 +31,12 @@ const schema = z.object({
   JWT_TTL_S: z.coerce.number().int().min(60).default(8 * 3600),
   WEB_DIST: z.string().default('dist/web'),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(90),
+  /** Dead letters and reading conflicts are deleted this many days after they arrived. */
+  DEAD_LETTER_RETENTION_DAYS: z.coerce.number().int().min(1).default(30),
+  /** Connections one gateway login may hold at once (broker). */
+  MQTT_MAX_CONNECTIONS_PER_GATEWAY: z.coerce.number().int().min(1).default(4),
+  /** Of MQTT_MAX_CONNECTIONS, this many are kept for Ferrisight's own services. */
+  MQTT_RESERVED_SERVICE_CONNECTIONS: z.coerce.number().int().min(1).default(50),
   INGEST_CLIENT_ID: z.string().default('ferrisight-ingest-1'),
   INGEST_TOPIC_FILTER: z.string().default(ALL_DEVICES_FILTER),
   // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).

@@ -12,7 +12,9 @@ import { disableDeliveryDedupe } from './delivery-dedupe.ts';
 import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
 import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
+import { GatewayConnections } from './gateway-connections.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
+import { limitPacketSize } from './packet-limit.ts';
 
 export type BrokerOptions = {
   /** TCP port; 0 picks a free one (tests). */
@@ -24,6 +26,10 @@ export type BrokerOptions = {
   servicePassword: string;
   serviceUser?: string;
   maxConnections?: number;
+  /** Connections one gateway login may hold (default 4). */
+  maxConnectionsPerGateway?: number;
+  /** Of maxConnections, kept for Ferrisight's own services (default 50, at most half). */
+  reservedServiceConnections?: number;
   /**
    * Dead-letter device messages that break the device contract here, before they are stored in
    * the worker's session (default true). Off, the worker refuses them, as it does behind a
@@ -46,12 +52,20 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
   const log = opts.log ?? rootLogger.child({ component: 'broker' });
   const maxConnections = opts.maxConnections ?? 2000;
   const pool = createIngestPool(opts.databaseUrl, 2);
-  const directory = new IdentityDirectory(pool, { username: opts.serviceUser ?? 'ferrisight-service', password: opts.servicePassword });
+  const serviceUser = opts.serviceUser ?? 'ferrisight-service';
+  const directory = new IdentityDirectory(pool, { username: serviceUser, password: opts.servicePassword });
+  const gateways = new GatewayConnections({
+    maxConnections,
+    reservedForServices: Math.min(opts.reservedServiceConnections ?? 50, Math.floor(maxConnections / 2)),
+    perGateway: opts.maxConnectionsPerGateway ?? 4,
+  });
   const identities = new WeakMap<Client, Identity>();
   const levelDir = path.join(opts.dataDir, 'broker');
   mkdirSync(levelDir, { recursive: true });
   const db = new Level<string, Buffer>(levelDir);
-  const edge = opts.screenAtEdge === false ? null : new EdgeDeadLetters(pool, log);
+  // Refused device publishes are always dead-lettered; screenAtEdge decides about the contract check.
+  const edgeLetters = new EdgeDeadLetters(pool, log);
+  const edge = opts.screenAtEdge === false ? null : edgeLetters;
 
   const broker = await Aedes.createBroker({
     persistence: aedesPersistenceLevel(db),
@@ -77,9 +91,9 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
           log.warn({ clientId: client.id, username }, 'mqtt authentication failed');
           return done(authError('bad user name or password', 4), false);
         }
-        const refusal = clientIdRefusal(identity, client.id);
+        const refusal = clientIdRefusal(identity, client.id) ?? gateways.admit(identity, client);
         if (refusal) {
-          log.warn({ clientId: client.id, username, refusal }, 'mqtt client id refused');
+          log.warn({ clientId: client.id, username, refusal }, 'mqtt connection refused');
           return done(authError(refusal, 5), false);
         }
         identities.set(client, identity);
@@ -93,20 +107,31 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       if (!client) return done(); // the broker's own $SYS messages
       const identity = identities.get(client);
       const refusal = publishRefusal(identity, packet.topic, packet.payload.length);
-      if (refusal) {
+      if (refusal && identity?.kind !== 'device') {
         log.warn({ clientId: client.id, topic: packet.topic.slice(0, 200), refusal }, 'mqtt publish refused');
         return done(new Error(refusal));
       }
       if (identity?.kind !== 'device') return done();
+      gateways.message(identity.username);
       // Devices cannot leave retained messages: a reading is an event, not a state.
       packet.retain = false;
       // A message that breaks the device contract is dead-lettered here, with the reason the worker
       // would give, and its PUBACK waits for that commit; it then goes to a topic nobody reads, so
       // hostile traffic never fills the worker's session. Batches and plant checks stay with the worker.
       const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
+      if (refusal) {
+        // A correct device that once sends what it may not must not be cut off and loop on
+        // re-sending it: the message is dead-lettered with its reason and acknowledged.
+        edgeLetters.add({ topic: packet.topic, payload, reason: refusal, receivedAtMs: Date.now(), gateway: identity.username }, (stored) => {
+          if (!stored) log.warn({ clientId: client.id, topic: packet.topic.slice(0, 200), refusal }, 'refused publish acknowledged without a dead letter (database unavailable)');
+          packet.topic = SCREENED_TOPIC;
+          done();
+        });
+        return;
+      }
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
       if (!letter) return done();
-      edge!.add(letter, (stored) => {
+      edge!.add({ ...letter, gateway: identity.username }, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;
         done();
       });
@@ -125,7 +150,9 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
   const startedAt = new Date().toISOString();
   let edgeLogged = 0;
   const report = () => {
-    const snap: BrokerHealth = { at: new Date().toISOString(), startedAt, deadLetteredAtEdge: edge?.stored ?? 0, connectedClients: broker.connectedClients };
+    const snap: BrokerHealth = {
+      at: new Date().toISOString(), startedAt, deadLetteredAtEdge: edgeLetters.stored, connectedClients: broker.connectedClients, gateways: gateways.snapshot(),
+    };
     broker.publish({ cmd: 'publish', topic: BROKER_HEALTH_TOPIC, payload: Buffer.from(JSON.stringify(snap)), qos: 0, retain: true, dup: false }, () => undefined);
     if (snap.deadLetteredAtEdge === edgeLogged) return;
     log.info({ deadLettered: snap.deadLetteredAtEdge, sinceLast: snap.deadLetteredAtEdge - edgeLogged }, 'device messages dead-lettered at the broker');
@@ -135,7 +162,20 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
   edgeReport.unref();
   report();
   broker.on('clientError', (client, err) => log.debug({ clientId: client.id, err: err.message }, 'client error'));
-  const server = net.createServer(broker.handle);
+  // Gateway status in Plant setup follows connects and disconnects within a second.
+  let reportSoon: NodeJS.Timeout | null = null;
+  const onGatewayChange = (client: Client) => {
+    const identity = identities.get(client);
+    if (identity?.kind !== 'device') return;
+    gateways.touch(identity.username);
+    reportSoon ??= setTimeout(() => {
+      reportSoon = null;
+      report();
+    }, 500);
+  };
+  broker.on('client', onGatewayChange);
+  broker.on('clientDisconnect', onGatewayChange);
+  const server = net.createServer((conn) => limitPacketSize(broker.handle(conn)));
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
     server.listen(opts.port, opts.host ?? '127.0.0.1', () => resolve());
@@ -149,6 +189,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     async close() {
       // Stop accepting first; broker.close() then ends every client, which lets server.close finish.
       clearInterval(edgeReport);
+      if (reportSoon) clearTimeout(reportSoon);
       const serverClosed = new Promise<void>((resolve) => server.close(() => resolve()));
       await new Promise<void>((resolve) => broker.close(() => resolve()));
       await serverClosed;

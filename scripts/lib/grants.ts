@@ -20,10 +20,14 @@ export const APPEND_ONLY_TABLES = [
   'calibration_fits',
   'probe_checks',
   'probe_replacements',
-  'reading_conflicts',
-  'dead_letters',
   'import_rejections',
 ] as const;
+
+/**
+ * Kept for inspection and removed only by their retention setting: never rewritten, so INSERT
+ * and DELETE but no UPDATE.
+ */
+export const RETAINED_TABLES = ['reading_conflicts', 'dead_letters'] as const;
 
 /** Owned by the migrator; the application only reads them. */
 export const READ_ONLY_TABLES = ['schema_migrations'] as const;
@@ -33,7 +37,7 @@ export const READ_WRITE_TABLES = [
   'users', 'sites', 'circuits', 'tanks', 'probes', 'devices', 'readings', 'rollups_1m', 'rollups_1h',
   'alarm_definitions', 'alarm_instances', 'alarm_event_order', 'alarm_inputs', 'roster_shifts', 'escalation_steps',
   'mail_outbox', 'alarm_ack_links', 'site_settings', 'assays', 'probe_check_schedules', 'shifts', 'shift_log_entries',
-  'import_jobs', 'leases',
+  'import_jobs', 'leases', 'setup_tokens',
 ] as const;
 
 export type TablePrivileges = { table: string; privileges: string };
@@ -48,15 +52,19 @@ const literal = (s: string) => `'${s.replace(/\\/g, '\\\\').replace(/'/g, "\\'")
 export function planGrants(tables: string[]): TablePrivileges[] {
   const appendOnly = new Set<string>(APPEND_ONLY_TABLES);
   const readOnly = new Set<string>(READ_ONLY_TABLES);
-  return [...tables].sort().map((table) => ({
-    table,
-    privileges: readOnly.has(table) ? 'SELECT' : appendOnly.has(table) ? 'SELECT, INSERT' : 'SELECT, INSERT, UPDATE, DELETE',
-  }));
+  const retained = new Set<string>(RETAINED_TABLES);
+  const privileges = (table: string) => {
+    if (readOnly.has(table)) return 'SELECT';
+    if (appendOnly.has(table)) return 'SELECT, INSERT';
+    if (retained.has(table)) return 'SELECT, INSERT, DELETE';
+    return 'SELECT, INSERT, UPDATE, DELETE';
+  };
+  return [...tables].sort().map((table) => ({ table, privileges: privileges(table) }));
 }
 
 /** Tables in neither list: each needs a decision (the security test lists them). */
 export function unclassifiedTables(tables: string[]): string[] {
-  const known = new Set<string>([...APPEND_ONLY_TABLES, ...READ_ONLY_TABLES, ...READ_WRITE_TABLES]);
+  const known = new Set<string>([...APPEND_ONLY_TABLES, ...RETAINED_TABLES, ...READ_ONLY_TABLES, ...READ_WRITE_TABLES]);
   return tables.filter((t) => !known.has(t)).sort();
 }
 

@@ -28,6 +28,10 @@ export const ingestHealthSchema = z.object({
 });
 export type IngestHealth = z.infer<typeof ingestHealthSchema>;
 
+/** One gateway login as the broker sees it. */
+export const gatewayLiveSchema = z.object({ username: z.string(), connections: count, lastSeenAt: z.string(), messagesLastHour: count });
+export type GatewayLive = z.infer<typeof gatewayLiveSchema>;
+
 /** Snapshot the embedded broker publishes (retained) on its health topic. */
 export const brokerHealthSchema = z.object({
   at: z.string(),
@@ -35,5 +39,7 @@ export const brokerHealthSchema = z.object({
   /** Device messages that broke the device contract, dead-lettered by the broker itself. */
   deadLetteredAtEdge: count,
   connectedClients: count,
+  /** Gateways seen since the broker started (absent from brokers older than this field). */
+  gateways: z.array(gatewayLiveSchema).optional(),
 });
 export type BrokerHealth = z.infer<typeof brokerHealthSchema>;

@@ -95,11 +95,32 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'GET', path: '/api/roster/policy', allowed: ALL },
   { method: 'PUT', path: '/api/roster/policy', allowed: ['supervisor', 'admin'], body: {} },
   { method: 'GET', path: '/api/admin/mail', allowed: ['admin'] },
+  // Plant setup and dead letters (issue 14): everyone reads the plant; admins change sites, circuits and tanks;
+  // admins and engineers change probes and gateways and read dead letters.
+  { method: 'GET', path: '/api/plant-setup', allowed: ALL },
+  { method: 'POST', path: '/api/plant-setup/sites', allowed: ['admin'], body: {} },
+  { method: 'PATCH', path: '/api/plant-setup/sites/:id', allowed: ['admin'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/sites/:id/retire', allowed: ['admin'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/circuits', allowed: ['admin'], body: {} },
+  { method: 'PATCH', path: '/api/plant-setup/circuits/:id', allowed: ['admin'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/circuits/:id/retire', allowed: ['admin'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/tanks', allowed: ['admin'], body: {} },
+  { method: 'PATCH', path: '/api/plant-setup/tanks/:id', allowed: ['admin'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/tanks/:id/retire', allowed: ['admin'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/probes', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'PATCH', path: '/api/plant-setup/probes/:id', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/probes/:id/retire', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/gateways', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'PATCH', path: '/api/plant-setup/gateways/:id', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/gateways/:id/rotate', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'POST', path: '/api/plant-setup/gateways/:id/retire', allowed: ['admin', 'engineer'], body: {} },
+  { method: 'GET', path: '/api/dead-letters', allowed: ['admin', 'engineer'] },
   // Sign-out ends every session of the user, so it runs last.
   { method: 'POST', path: '/api/auth/sign-out', allowed: ALL },
 ];
 // Routes that need no session by design.
-const PUBLIC = ['GET /ack/:token', 'POST /ack/:token', 'POST /api/auth/sign-in'];
+// The first-run routes work only while the database has no users, with the one-time token.
+const PUBLIC = ['GET /ack/:token', 'POST /ack/:token', 'POST /api/auth/sign-in', 'GET /api/first-run', 'POST /api/first-run'];
 
 let t: TestApi;
 beforeAll(async () => {

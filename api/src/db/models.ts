@@ -23,6 +23,7 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
   declare tag: string;
   declare name: string;
   declare timeZone: CreationOptional<string>;
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -35,6 +36,7 @@ export class Circuit extends Model<InferAttributes<Circuit>, InferCreationAttrib
   declare position: number;
   /** What the circuit runs; the Dose advisor's default oxidant follows it. */
   declare process: CreationOptional<CircuitProcess>;
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -50,6 +52,8 @@ export class Tank extends Model<InferAttributes<Tank>, InferCreationAttributes<T
   declare bandHigh: number;
   declare bandTarget: number | null;
   declare offline: CreationOptional<boolean>;
+  declare feTotalGPerL: CreationOptional<number | null>;
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -81,6 +85,7 @@ export class Probe extends Model<InferAttributes<Probe>, InferCreationAttributes
   declare intervalS: number;
   declare installedAt: Date;
   declare active: CreationOptional<boolean>;
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -91,6 +96,8 @@ export class Device extends Model<InferAttributes<Device>, InferCreationAttribut
   declare username: string;
   declare passwordHash: string;
   declare enabled: CreationOptional<boolean>;
+  declare name: CreationOptional<string | null>;
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -126,6 +133,7 @@ export function initModels(sequelize: Sequelize): void {
     tag: { type: DataTypes.STRING(40), allowNull: false, unique: true },
     name: { type: DataTypes.STRING(120), allowNull: false },
     timeZone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+    retiredAt: { type: DataTypes.DATE(3), allowNull: true },
     ...stamps,
   }, { sequelize, tableName: 'sites' });
   Circuit.init({
@@ -134,6 +142,7 @@ export function initModels(sequelize: Sequelize): void {
     name: { type: DataTypes.STRING(120), allowNull: false },
     position: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     process: { type: DataTypes.ENUM('bioleach', 'ferric-leach', 'other'), allowNull: false, defaultValue: 'other' },
+    retiredAt: { type: DataTypes.DATE(3), allowNull: true },
     ...stamps,
   }, { sequelize, tableName: 'circuits' });
   Tank.init({
@@ -146,6 +155,8 @@ export function initModels(sequelize: Sequelize): void {
     bandHigh: { type: DataTypes.DOUBLE, allowNull: false },
     bandTarget: { type: DataTypes.DOUBLE, allowNull: true },
     offline: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    feTotalGPerL: { type: DataTypes.DOUBLE, allowNull: true, field: 'fe_total_g_per_l' },
+    retiredAt: { type: DataTypes.DATE(3), allowNull: true },
     ...stamps,
   }, { sequelize, tableName: 'tanks' });
   Calibration.init({
@@ -170,6 +181,7 @@ export function initModels(sequelize: Sequelize): void {
     intervalS: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 5 },
     installedAt: { type: DataTypes.DATE(3), allowNull: false },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    retiredAt: { type: DataTypes.DATE(3), allowNull: true },
     ...stamps,
   }, { sequelize, tableName: 'probes' });
   Device.init({
@@ -177,6 +189,8 @@ export function initModels(sequelize: Sequelize): void {
     username: { type: DataTypes.STRING(64), allowNull: false, unique: true },
     passwordHash: { type: DataTypes.STRING(100), allowNull: false },
     enabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    name: { type: DataTypes.STRING(120), allowNull: true },
+    retiredAt: { type: DataTypes.DATE(3), allowNull: true },
     ...stamps,
   }, { sequelize, tableName: 'devices' });
   AuditEntry.init({

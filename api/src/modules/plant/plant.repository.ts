@@ -48,8 +48,13 @@ export const plantRepository = {
   /** The whole plant tree with band, active probe, calibration in force and latest reading per tank. */
   async tree(): Promise<SiteSummary[]> {
     const [sites, latest, calibrations] = await Promise.all([
+      // Retired parts of the plant keep their readings but leave the Floor.
       Site.findAll({
-        include: [{ model: Circuit, include: [{ model: Tank, include: [{ model: Probe, where: { active: true }, required: false }] }] }],
+        where: { retiredAt: null },
+        include: [{
+          model: Circuit, where: { retiredAt: null }, required: false,
+          include: [{ model: Tank, where: { retiredAt: null }, required: false, include: [{ model: Probe, where: { active: true, retiredAt: null }, required: false }] }],
+        }],
         order: [['tag', 'ASC'], [Circuit, 'position', 'ASC'], [Circuit, Tank, 'position', 'ASC']],
       }),
       latestByProbe(),

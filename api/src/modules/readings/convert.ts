@@ -35,7 +35,7 @@ export function convertReading(r: DecodedReading, lookup: ProbeLookup, opts: Pip
   if (tsMs < opts.receivedAtMs - opts.retentionDays * DAY_MS) {
     return `${at}ts ${r.ts} is older than the raw retention window (${opts.retentionDays} days)`;
   }
-  const cal = probe.calibration;
+  const cal = lookup.calibrationAt?.(probe.tankId, tsMs) ?? probe.calibration;
   if (!cal) return `${at}no calibration for tank ${probe.tankId} (probe '${r.probeTag}')`;
   try {
     const out = orpToRatio({

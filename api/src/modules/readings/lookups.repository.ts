@@ -24,7 +24,8 @@ const PROBES_SQL = `
     JOIN circuits ci ON ci.id = t.circuit_id
     JOIN sites s ON s.id = ci.site_id
     LEFT JOIN calibrations c ON c.tank_id = t.id
-     AND c.version = (SELECT MAX(c2.version) FROM calibrations c2 WHERE c2.tank_id = t.id)`;
+     AND c.version = (SELECT MAX(c2.version) FROM calibrations c2 WHERE c2.tank_id = t.id)
+   WHERE p.retired_at IS NULL`;
 
 const TAGS_SQL = `
   SELECT s.tag AS site_tag, p.tag AS probe_tag
@@ -36,14 +37,14 @@ const TAGS_SQL = `
 export type CalibrationRow = {
   tankId: number; version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency?: number; validFromMs: number;
 };
-export type DeviceRow = { password_hash: string; enabled: number; site_tag: string };
+export type DeviceRow = { username: string; password_hash: string; enabled: number; site_tag: string };
 
 export const lookupsRepository = {
   /** Every probe with its tank, site, reference electrode and the tank's highest calibration version. */
   probes: (pool: Pool): Promise<ProbeRow[]> => pool.query(PROBES_SQL),
 
   async siteTags(pool: Pool): Promise<string[]> {
-    const rows: { tag: string }[] = await pool.query('SELECT tag FROM sites');
+    const rows: { tag: string }[] = await pool.query('SELECT tag FROM sites WHERE retired_at IS NULL');
     return rows.map((r) => r.tag);
   },
 
@@ -63,11 +64,12 @@ export const lookupsRepository = {
     return rows.map((r) => ({ siteTag: r.site_tag, probeTag: r.probe_tag }));
   },
 
-  /** A device's stored credentials and site, or null when the username is unknown. */
+  /** A device's stored credentials and site, or null when the username is unknown or retired. */
   async device(pool: Pool, username: string): Promise<DeviceRow | null> {
     const rows: DeviceRow[] = await pool.query(
-      `SELECT d.password_hash, d.enabled, s.tag AS site_tag
-         FROM devices d JOIN sites s ON s.id = d.site_id WHERE d.username = ?`, [username]);
-    return rows[0] ?? null;
+      `SELECT d.username, d.password_hash, d.enabled, s.tag AS site_tag
+         FROM devices d JOIN sites s ON s.id = d.site_id WHERE d.username = ? AND d.retired_at IS NULL`, [username]);
+    // The column's collation ignores case and trailing spaces; a login must match exactly.
+    return rows.find((r) => r.username === username) ?? null;
   },
 };

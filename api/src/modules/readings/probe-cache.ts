@@ -1,6 +1,7 @@
 import type { ReferenceElectrode, ReferenceTablePoint } from '../../../../shared/redox/index.ts';
 import type { Pool } from '../../db/pool.ts';
 import { lookupsRepository, type ProbeRow } from './lookups.repository.ts';
+import { CalibrationHistory } from './calibration-history.ts';
 
 /** Everything the worker needs to convert one probe's readings. */
 export type ProbeEntry = {
@@ -15,8 +16,16 @@ export type ProbeEntry = {
   calibration: { version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency: number } | null;
 };
 
-/** What the pipeline asks of a cache; tests pass a plain object. */
-export type ProbeLookup = { probe(tag: string): ProbeEntry | undefined; hasSite(tag: string): boolean };
+/**
+ * What the pipeline asks of a cache; tests pass a plain object. calibrationAt, when given,
+ * answers the calibration valid at a reading's own time (a late or backlog reading must not
+ * get a calibration that took effect after it was taken); null falls back to the newest.
+ */
+export type ProbeLookup = {
+  probe(tag: string): ProbeEntry | undefined;
+  hasSite(tag: string): boolean;
+  calibrationAt?(tankId: number, tsMs: number): ProbeEntry['calibration'];
+};
 
 /** A maker's table stored as JSON (MariaDB returns JSON columns as text). */
 export function referenceTableOf(raw: string | ReferenceTablePoint[] | null | undefined): { table?: ReferenceTablePoint[] } {
@@ -52,6 +61,7 @@ export function buildLookup(rows: ProbeRow[], siteTags: string[]): ProbeLookup {
  */
 export class ProbeCache implements ProbeLookup {
   private lookup: ProbeLookup = buildLookup([], []);
+  private history: CalibrationHistory = CalibrationHistory.fromRows([]);
   private loadedAtMs = 0;
   private loading: Promise<void> | null = null;
 
@@ -65,12 +75,19 @@ export class ProbeCache implements ProbeLookup {
     return this.lookup.hasSite(tag);
   }
 
+  calibrationAt(tankId: number, tsMs: number): ProbeEntry['calibration'] {
+    return this.history.at(tankId, tsMs);
+  }
+
   /** Reloads from the database; concurrent callers share one query. */
   reload(): Promise<void> {
     this.loading ??= (async () => {
       try {
-        const [rows, sites] = [await lookupsRepository.probes(this.pool), await lookupsRepository.siteTags(this.pool)];
+        const [rows, sites, history] = [
+          await lookupsRepository.probes(this.pool), await lookupsRepository.siteTags(this.pool), await CalibrationHistory.load(this.pool),
+        ];
         this.lookup = buildLookup(rows, sites);
+        this.history = history;
         this.loadedAtMs = Date.now();
       } finally {
         this.loading = null;

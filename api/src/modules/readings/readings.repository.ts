@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { placeholders, toSqlTs, type PoolConnection } from '../../db/pool.ts';
 import type { ConvertedReading } from './convert.ts';
 import { addToRollups } from './rollups.repository.ts';
@@ -157,17 +158,40 @@ export async function storeReadings(conn: PoolConnection, readings: ConvertedRea
     const first = firsts.get(key)!;
     judge(r, first.ts, existing.get(key) ?? { orpMv: first.r.orpMv, tempC: first.r.tempC });
   }
-  for (let i = 0; i < conflicts.length; i += CHUNK) {
-    const rows = conflicts.slice(i, i + CHUNK);
-    const params = rows.flatMap(({ r, ts, stored }) => [
-      r.probeId, ts, stored.orpMv, stored.tempC, r.orpMv, r.tempC, r.seq, source.slice(0, 200), toSqlTs(r.receivedAtMs),
-    ]);
-    await conn.query(
-      `INSERT INTO reading_conflicts (probe_id, ts, stored_orp_mv, stored_temp_c, incoming_orp_mv, incoming_temp_c, incoming_seq, source, received_at)
-       VALUES ${placeholders(rows.length, 9)}`, params);
-  }
+  await insertConflicts(conn, conflicts.map(({ r, ts, stored }) => [
+    r.probeId, ts, stored.orpMv, stored.tempC, r.orpMv, r.tempC, r.seq, source.slice(0, 200), toSqlTs(r.receivedAtMs),
+  ]));
   await addToRollups(conn, result.inserted);
   result.stored = result.inserted.length;
   result.conflicts = conflicts.length;
   return result;
+}
+
+type ConflictParams = [number, string, number, number, number, number, number | null, string, string];
+
+/**
+ * Logs conflicting values, once each: the fingerprint (probe, instant, incoming values) is
+ * unique, so a device re-sending the same conflicting message adds no second row. The table
+ * is insert-only for the app, hence read-then-insert rather than an upsert.
+ */
+async function insertConflicts(conn: PoolConnection, rows: ConflictParams[]): Promise<void> {
+  const fresh = new Map<string, ConflictParams>();
+  for (const p of rows) {
+    fresh.set(createHash('sha256').update([p[0], p[1], p[4], p[5], p[6] ?? ''].join('\0')).digest('hex'), p);
+  }
+  const prints = [...fresh.keys()];
+  for (let i = 0; i < prints.length; i += CHUNK) {
+    const some = prints.slice(i, i + CHUNK);
+    const known: { fp: string }[] = await conn.query(
+      `SELECT HEX(fingerprint) AS fp FROM reading_conflicts WHERE fingerprint IN (${some.map(() => 'UNHEX(?)').join(',')})`, some);
+    for (const k of known) fresh.delete(k.fp.toLowerCase());
+  }
+  const list = [...fresh.entries()];
+  for (let i = 0; i < list.length; i += CHUNK) {
+    const part = list.slice(i, i + CHUNK);
+    await conn.query(
+      `INSERT INTO reading_conflicts (probe_id, ts, stored_orp_mv, stored_temp_c, incoming_orp_mv, incoming_temp_c, incoming_seq, source, received_at, fingerprint)
+       VALUES ${part.map(() => '(?, ?, ?, ?, ?, ?, ?, ?, ?, UNHEX(?))').join(', ')}`,
+      part.flatMap(([fp, p]) => [...p, fp]));
+  }
 }

@@ -36,3 +36,26 @@ export async function deleteExpiredReadings(pool: Pool, retentionDays: number, l
   if (total > 0) log.info({ deleted: total, cutoff }, 'raw readings past retention deleted');
   return total;
 }
+
+/**
+ * Deletes dead letters and conflicts received more than retentionDays ago, in chunks on the
+ * received_at index (both tables are kept for inspection, not as the record).
+ * @returns rows deleted from each table
+ */
+export async function deleteExpiredRefusals(
+  pool: Pool, retentionDays: number, log: Logger, nowMs = Date.now(),
+): Promise<{ deadLetters: number; conflicts: number }> {
+  const cutoff = toSqlTs(nowMs - retentionDays * 86_400_000);
+  const out = { deadLetters: 0, conflicts: 0 };
+  for (const [table, key] of [['dead_letters', 'deadLetters'], ['reading_conflicts', 'conflicts']] as const) {
+    for (;;) {
+      const res: { affectedRows: number } = await pool.query(
+        `DELETE FROM ${table} WHERE received_at < ? ORDER BY received_at LIMIT ?`, [cutoff, CHUNK_ROWS]);
+      out[key] += res.affectedRows;
+      if (res.affectedRows < CHUNK_ROWS) break;
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+  }
+  if (out.deadLetters + out.conflicts > 0) log.info({ ...out, cutoff }, 'dead letters and conflicts past retention deleted');
+  return out;
+}
