@@ -30,10 +30,7 @@ export class GatewayConnections {
 
   constructor(private readonly limits: ConnectionLimits) {}
 
-  /**
-   * Before authentication (only the CONNECT packet is known): devices may not use the room kept
-   * for the services. Returns a refusal or null.
-   */
+  /** Devices may not use the room kept for the services. Returns a refusal or null. */
   capacityRefusal(connectedClients: number, isServiceUser: boolean): string | null {
     if (connectedClients >= this.limits.maxConnections) return 'connection cap reached';
     if (!isServiceUser && connectedClients >= this.limits.maxConnections - this.limits.reservedForServices) {

@@ -41,7 +41,7 @@ export type BrokerOptions = {
 
 export type RunningBroker = { port: number; broker: Aedes; close: () => Promise<void> };
 
-const authError = (message: string, returnCode: 4 | 5): AuthenticateError => Object.assign(new Error(message), { returnCode });
+const authError = (message: string, returnCode: 3 | 4 | 5): AuthenticateError => Object.assign(new Error(message), { returnCode });
 
 /**
  * Embedded aedes broker with sessions on disk (aedes-persistence-level), so QoS 1 messages not
@@ -52,8 +52,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
   const log = opts.log ?? rootLogger.child({ component: 'broker' });
   const maxConnections = opts.maxConnections ?? 2000;
   const pool = createIngestPool(opts.databaseUrl, 2);
-  const serviceUser = opts.serviceUser ?? 'ferrisight-service';
-  const directory = new IdentityDirectory(pool, { username: serviceUser, password: opts.servicePassword });
+  const directory = new IdentityDirectory(pool, { username: opts.serviceUser ?? 'ferrisight-service', password: opts.servicePassword });
   const gateways = new GatewayConnections({
     maxConnections,
     reservedForServices: Math.min(opts.reservedServiceConnections ?? 50, Math.floor(maxConnections / 2)),
@@ -91,6 +90,11 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
           log.warn({ clientId: client.id, username }, 'mqtt authentication failed');
           return done(authError('bad user name or password', 4), false);
         }
+        const full = gateways.capacityRefusal(broker.connectedClients, identity.kind === 'service');
+        if (full) {
+          log.warn({ clientId: client.id, username, refusal: full }, 'mqtt connection refused');
+          return done(authError(full, 3), false); // server unavailable
+        }
         const refusal = clientIdRefusal(identity, client.id) ?? gateways.admit(identity, client);
         if (refusal) {
           log.warn({ clientId: client.id, username, refusal }, 'mqtt connection refused');
@@ -120,6 +124,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       // hostile traffic never fills the worker's session. Batches and plant checks stay with the worker.
       const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
       if (refusal) {
+        log.warn({ clientId: client.id, username: identity.username, topic: packet.topic.slice(0, 200), refusal }, 'mqtt publish refused');
         // A correct device that once sends what it may not must not be cut off and loop on
         // re-sending it: the message is dead-lettered with its reason and acknowledged.
         edgeLetters.add({ topic: packet.topic, payload, reason: refusal, receivedAtMs: Date.now(), gateway: identity.username }, (stored) => {

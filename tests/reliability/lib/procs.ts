@@ -75,7 +75,10 @@ export type BrokerEnv = { port: number; dataDir: string; databaseUrl: string; ex
 /** ingest/broker.ts on a fixed port with its level store in dataDir/broker; resolves once it listens. */
 export async function startBrokerProcess(o: BrokerEnv): Promise<Child> {
   const child = spawnPart('ingest/broker.ts', {
-    MQTT_PORT: String(o.port), FERRISIGHT_DATA_DIR: o.dataDir, DATABASE_URL: o.databaseUrl, SERVICE_MQTT_PASSWORD: SERVICE_PASSWORD, FERRISIGHT_PROC: 'broker', ...o.extra,
+    MQTT_PORT: String(o.port), FERRISIGHT_DATA_DIR: o.dataDir, DATABASE_URL: o.databaseUrl, SERVICE_MQTT_PASSWORD: SERVICE_PASSWORD, FERRISIGHT_PROC: 'broker',
+    // The load generators open hundreds of connections with one device login.
+    MQTT_MAX_CONNECTIONS_PER_GATEWAY: '1000',
+    ...o.extra,
   });
   await Promise.race([
     waitForPort(o.port),
