@@ -41,6 +41,12 @@ async function skipSignInWhenSignedIn() {
 
 export const router = createBrowserRouter([
   {
+    path: '/first-run',
+    lazy: async () => ({ Component: (await import('./routes/first-run')).FirstRunRoute }),
+    errorElement: <RouteError />,
+    hydrateFallbackElement: <Loading />,
+  },
+  {
     path: '/sign-in',
     loader: skipSignInWhenSignedIn,
     element: <SignInRoute />,

@@ -16,7 +16,8 @@ export const SCREENS = {
   roster: { path: '/call-roster', name: 'Call roster', roles: ROLES, built: true },
   digest: { path: '/shift-digest', name: 'Shift digest', roles: ['supervisor', 'metallurgist', 'admin'], built: true },
   shiftLog: { path: '/shift-log', name: 'Shift log', roles: ROLES, built: true },
-  setup: { path: '/plant-setup', name: 'Plant setup', roles: ['admin'], built: true },
+  // Engineers look after probes and gateways; sites, circuits, tanks and people are the admins'.
+  setup: { path: '/plant-setup', name: 'Plant setup', roles: ['admin', 'engineer'], built: true },
 } as const satisfies Record<string, Screen>;
 
 export function canOpen(role: Role | undefined, screen: Screen): boolean {
