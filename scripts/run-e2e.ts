@@ -10,6 +10,12 @@
  * (SIGTERM: run-plant stops its parts and its MariaDB) whether the tests pass, fail or are
  * interrupted. The app's output goes to <data folder>/plant.log, screenshots to test-results/.
  *
+ * A second app, a real site from an empty database (DEMO=off, SIMULATOR=off: no demo plant,
+ * no demo users, a one-time first-run link), starts in .data/test-e2e-site/ for the
+ * commissioning test (tests/e2e/commissioning.test.ts) when it is among the files run; its
+ * address, first-run link and MQTT port reach the tests as E2E_SITE_URL, E2E_SITE_FIRST_RUN
+ * and E2E_SITE_MQTT_PORT.
+ *
  * Settings: E2E_START_TIMEOUT_S=240 (how long the app may take to come up).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -39,14 +45,14 @@ process.stdout.on('error', () => {});
  */
 const NOT_INHERITED = [
   'DATABASE_URL', 'DATABASE_READ_URL', 'MQTT_URL', 'SMTP_URL', 'REDIS_URL', 'PUBLIC_URL', 'JWT_SECRET',
-  'SERVICE_MQTT_PASSWORD', 'SIM_DEVICE_PASSWORD', 'SIMULATOR', 'DEMO_HISTORY', 'WEB_DIST', 'HOST',
+  'SERVICE_MQTT_PASSWORD', 'SIM_DEVICE_PASSWORD', 'SIMULATOR', 'DEMO', 'DEMO_HISTORY', 'WEB_DIST', 'HOST',
   'PORT', 'DB_PORT', 'MQTT_PORT', 'SMTP_PORT', 'WEB_DEV_PORT', 'RAW_RETENTION_DAYS', 'INGEST_SLICE', 'INGEST_SLICE_BY',
   'INGEST_SHARED_GROUP', 'E2E_BASE_URL', 'FERRISIGHT_DATA_DIR', 'NODE_ENV',
 ];
 
-let scratch: ScratchDir | undefined;
-let plant: ChildProcess | undefined;
-let plantExited: Promise<void> | undefined;
+type App = { scratch: ScratchDir; child?: ChildProcess; exited?: Promise<void> };
+/** The demo app and, for the commissioning test, the empty site: stopped in reverse order. */
+const apps: App[] = [];
 let current: ChildProcess | undefined;
 let interrupted = false;
 
@@ -72,13 +78,13 @@ async function freePorts(): Promise<number[]> {
 type Started = { url: string } | { exitCode: number; portTaken: boolean } | { timedOut: true };
 
 /** Starts run-plant; resolves with its address once it prints it, or with its exit. */
-function startPlant(dir: string, env: NodeJS.ProcessEnv, log: NodeJS.WritableStream): Promise<Started> {
+function startPlant(app: App, env: NodeJS.ProcessEnv, log: NodeJS.WritableStream): Promise<Started> {
   return new Promise((resolve) => {
     const child = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'scripts/run-plant.ts')], {
       cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'],
     });
-    plant = child;
-    plantExited = new Promise((r) => child.once('exit', () => r()));
+    app.child = child;
+    app.exited = new Promise((r) => child.once('exit', () => r()));
     let portTaken = false;
     let inBanner = false;
     const onLine = (line: string) => {
@@ -117,16 +123,17 @@ async function waitForHealth(url: string, timeoutMs: number): Promise<boolean> {
   return false;
 }
 
-async function stopPlant(): Promise<void> {
-  if (!plant || !scratch) return;
+async function stopPlant(app: App): Promise<void> {
+  const { child, scratch } = app;
+  if (!child) return;
   const t = Date.now();
-  if (plant.exitCode === null && plant.signalCode === null) {
-    plant.kill('SIGTERM');
-    const done = await Promise.race([plantExited!.then(() => true), sleep(60_000).then(() => false)]);
+  if (child.exitCode === null && child.signalCode === null) {
+    child.kill('SIGTERM');
+    const done = await Promise.race([app.exited!.then(() => true), sleep(60_000).then(() => false)]);
     if (!done) {
       fail('The test app did not stop within 60 s: killing it');
-      plant.kill('SIGKILL');
-      await plantExited;
+      child.kill('SIGKILL');
+      await app.exited;
     }
   }
   // After a clean stop there is nothing left; after a crash or a kill, stray parts and MariaDB.
@@ -146,8 +153,10 @@ async function runVitest(env: NodeJS.ProcessEnv): Promise<number> {
 }
 
 const finish = finisher(async () => {
-  await stopPlant().catch((err) => fail(`Could not stop the test app: ${(err as Error).message}`));
-  scratch?.release();
+  for (const app of [...apps].reverse()) {
+    await stopPlant(app).catch((err) => fail(`Could not stop the test app: ${(err as Error).message}`));
+    app.scratch.release();
+  }
 });
 
 onFirstSignal(() => {
@@ -162,10 +171,11 @@ function demoPassword(): string {
   return users[0]!.password;
 }
 
-async function main(): Promise<void> {
-  const t0 = Date.now();
-  ensurePrivateDir(DATA_DIR);
-  scratch = await claimScratchDir(DATA_DIR, 'test-e2e', async (dir) => stopLeftovers(dir), say);
+/** Claims a wiped data folder and starts run-plant on free ports with these extra settings; null when it failed (already reported). */
+async function startApp(name: string, label: string, extra: NodeJS.ProcessEnv, base: NodeJS.ProcessEnv): Promise<{ url: string; dir: string; mqttPort: number } | null> {
+  const scratch = await claimScratchDir(DATA_DIR, name, async (dir) => stopLeftovers(dir), say);
+  const app: App = { scratch };
+  apps.push(app);
   const dir = scratch.dir;
   await stopLeftovers(dir);
   rmSync(dir, { recursive: true, force: true });
@@ -173,45 +183,71 @@ async function main(): Promise<void> {
   const logFile = path.join(dir, 'plant.log');
   const log = createWriteStream(logFile);
   const rel = (p: string) => path.relative(ROOT, p);
-
-  const base: NodeJS.ProcessEnv = { ...process.env };
-  for (const k of NOT_INHERITED) delete base[k];
   let started: Started | undefined;
+  let mqttPort = 0;
   for (let attempt = 1; attempt <= 3 && !interrupted; attempt++) {
-    const [port, dbPort, mqttPort, smtpPort] = await freePorts();
-    say(`Starting the app for the browser tests on 127.0.0.1:${port} (data in ${rel(dir)}/, log in ${rel(logFile)})`);
+    const [port, dbPort, mqtt, smtpPort] = await freePorts();
+    mqttPort = mqtt!;
+    say(`Starting ${label} on 127.0.0.1:${port} (data in ${rel(dir)}/, log in ${rel(logFile)})`);
     const env: NodeJS.ProcessEnv = {
       ...base,
       FERRISIGHT_DATA_DIR: dir,
-      WEB_DIST: path.join(dir, 'web'),
+      WEB_DIST: path.join(apps[0]!.scratch.dir, 'web'),
       PORT: String(port),
       DB_PORT: String(dbPort),
       MQTT_PORT: String(mqttPort),
       SMTP_PORT: String(smtpPort),
+      ...extra,
     };
     const timeout = sleep(START_TIMEOUT_MS).then((): Started => ({ timedOut: true }));
-    started = await Promise.race([startPlant(dir, env, log), timeout]);
+    started = await Promise.race([startPlant(app, env, log), timeout]);
     // Another process took one of the ports between the pick and the start: pick again.
     if (!('exitCode' in started && started.portTaken)) break;
   }
-  if (interrupted) return;
+  if (interrupted) return null;
   if (!started || !('url' in started)) {
     const why = !started ? 'did not start' : 'timedOut' in started ? `did not come up within ${START_TIMEOUT_MS / 1000} s` : `exited (${started.exitCode})`;
-    fail(`The test app ${why}; its output is in ${rel(logFile)}:`);
+    fail(`${label} ${why}; its output is in ${rel(logFile)}:`);
     fail(tail(logFile, 30));
-    return void (await finish(1));
+    return null;
   }
   if (!(await waitForHealth(started.url, 60_000))) {
-    if (interrupted) return;
-    fail(`The test app at ${started.url} does not answer /api/health; its output is in ${rel(logFile)}:`);
-    fail(tail(logFile, 30));
-    return void (await finish(1));
+    if (!interrupted) {
+      fail(`${label} at ${started.url} does not answer /api/health; its output is in ${rel(logFile)}:`);
+      fail(tail(logFile, 30));
+    }
+    return null;
   }
-  say(`App up at ${started.url} (${seconds(Date.now() - t0)})`);
+  return { url: started.url, dir, mqttPort };
+}
 
-  const code = await runVitest({ ...base, E2E_BASE_URL: started.url, E2E_PASSWORD: demoPassword() });
+async function main(): Promise<void> {
+  const t0 = Date.now();
+  ensurePrivateDir(DATA_DIR);
+  const base: NodeJS.ProcessEnv = { ...process.env };
+  for (const k of NOT_INHERITED) delete base[k];
+  const demo = await startApp('test-e2e', 'the app for the browser tests', {}, base);
   if (interrupted) return;
-  if (code !== 0) say(`The app's output is in ${rel(logFile)}; screenshots in test-results/`);
+  if (!demo) return void (await finish(1));
+  say(`App up at ${demo.url} (${seconds(Date.now() - t0)})`);
+
+  const env: NodeJS.ProcessEnv = { ...base, E2E_BASE_URL: demo.url, E2E_PASSWORD: demoPassword() };
+  const files = args.filter((a) => !a.startsWith('-'));
+  if (files.length === 0 || files.some((f) => f.includes('commissioning'))) {
+    const site = await startApp('test-e2e-site', 'an empty site (no demo data) for the commissioning test', { DEMO: 'off', SIMULATOR: 'off', DEMO_HISTORY: 'off' }, base);
+    if (interrupted) return;
+    if (!site) return void (await finish(1));
+    Object.assign(env, {
+      E2E_SITE_URL: site.url,
+      E2E_SITE_MQTT_PORT: String(site.mqttPort),
+      E2E_SITE_FIRST_RUN: readFileSync(path.join(site.dir, 'first-run-link.txt'), 'utf8').trim(),
+    });
+    say(`Empty site up at ${site.url}`);
+  }
+
+  const code = await runVitest(env);
+  if (interrupted) return;
+  if (code !== 0) say(`The apps' output is in ${apps.map((a) => path.relative(ROOT, path.join(a.scratch.dir, 'plant.log'))).join(' and ')}; screenshots in test-results/`);
   await finish(code);
 }
 

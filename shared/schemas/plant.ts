@@ -38,6 +38,9 @@ export type TankSummary = {
   latest: TankLive | null;
 };
 
+/** One stored reading with the calibration version it was converted with (late readings keep the one valid at their time). */
+export type RecentReading = { ts: string; orpMv: number; tempC: number; ratio: number; flag: 'ok' | 'outside-range'; calibrationVersion: number };
+
 /** What a circuit runs: bioleach circuits are oxidised with air or oxygen (peroxide harms the culture). */
 export type CircuitProcess = 'bioleach' | 'ferric-leach' | 'other';
 

@@ -29,4 +29,14 @@ describe('live feed', () => {
     feed.push([reading(1, new Date(17_000).toISOString())]);
     expect(feed.freshnessChanges(17_100).map((f) => f.stale)).toEqual([false]);
   });
+
+  it('when a reading comes for a probe added since the list was loaded, then it is kept and flagged, and goes out once the list knows it', () => {
+    const feed = new LiveFeed();
+    feed.setProbes([{ probeId: 1, tankId: 1, siteTag: 's', intervalS: 5 }]);
+    feed.push([reading(7, '2026-12-01T00:00:00.000Z')]);
+    expect(feed.drain(10_000).size).toBe(0);
+    expect(feed.unknownProbe).toBe(true);
+    feed.setProbes([{ probeId: 1, tankId: 1, siteTag: 's', intervalS: 5 }, { probeId: 7, tankId: 7, siteTag: 'new', intervalS: 5 }]);
+    expect(feed.drain(10_100).get('new')?.map((r) => r.tankId)).toEqual([7]);
+  });
 });

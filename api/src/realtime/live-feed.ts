@@ -13,6 +13,8 @@ export class LiveFeed {
   private lastSeen = new Map<number, number>();
   private stale = new Map<number, boolean>();
   private probes = new Map<number, ProbeMeta>();
+  /** A reading came for a probe not in the list (added in Plant setup since the last refresh). */
+  unknownProbe = false;
 
   setProbes(list: ProbeMeta[]): void {
     this.probes = new Map(list.map((p) => [p.probeId, p]));
@@ -36,9 +38,13 @@ export class LiveFeed {
     const bySite = new Map<string, TankLive[]>();
     for (const [tankId, r] of this.pending) {
       if (nowMs - (this.lastSent.get(tankId) ?? 0) < minGapMs) continue;
-      this.pending.delete(tankId);
       const site = this.probes.get(r.probeId)?.siteTag;
-      if (!site) continue;
+      if (!site) {
+        // Kept (one per tank) until the probe list knows it, so a new tank's first reading still goes out.
+        this.unknownProbe = true;
+        continue;
+      }
+      this.pending.delete(tankId);
       this.lastSent.set(tankId, nowMs);
       bySite.set(site, [...(bySite.get(site) ?? []), r]);
     }

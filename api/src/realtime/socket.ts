@@ -68,7 +68,13 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
   void refreshProbes();
   const probeTimer = setInterval(refreshProbes, 60_000);
   bus?.on('latest', (readings) => feed.push(readings));
+  let lastRefreshMs = 0;
   const flushTimer = setInterval(() => {
+    if (feed.unknownProbe && Date.now() - lastRefreshMs >= 1000) {
+      feed.unknownProbe = false;
+      lastRefreshMs = Date.now();
+      void refreshProbes();
+    }
     for (const [site, readings] of feed.drain(Date.now())) live.to(`site:${site}`).emit('tank:latest', readings);
     for (const f of feed.freshnessChanges(Date.now())) {
       const { siteTag, ...payload } = f;

@@ -1,6 +1,6 @@
 import type { ReadingFlag } from '../../../../shared/redox/index.ts';
 import { QueryTypes } from 'sequelize';
-import type { CalibrationInfo, ProbeInfo, SiteSummary, TankSummary } from '../../../../shared/schemas/plant.ts';
+import type { CalibrationInfo, ProbeInfo, RecentReading, SiteSummary, TankSummary } from '../../../../shared/schemas/plant.ts';
 import type { TankLive } from '../../../../shared/schemas/readings.ts';
 import { Calibration, Circuit, Probe, Site, Tank } from '../../db/models.ts';
 import { referenceLabel } from './reference-label.ts';
@@ -85,6 +85,14 @@ export const plantRepository = {
         WHERE p.active = 1`,
       { type: QueryTypes.SELECT },
     );
+  },
+
+  /** The newest readings of a probe, newest first (a primary-key range walk). */
+  async recentReadings(probeId: number, limit: number): Promise<RecentReading[]> {
+    const rows = await Site.sequelize!.query<{ ts: Date; orp_mv: number; temp_c: number; ratio: number; flag: 'ok' | 'outside-range'; calibration_version: number }>(
+      `SELECT ts, orp_mv, temp_c, ratio, flag, calibration_version FROM readings WHERE probe_id = :probeId ORDER BY ts DESC LIMIT ${Math.trunc(limit)}`,
+      { replacements: { probeId }, type: QueryTypes.SELECT });
+    return rows.map((r) => ({ ts: iso(r.ts), orpMv: r.orp_mv, tempC: r.temp_c, ratio: r.ratio, flag: r.flag, calibrationVersion: r.calibration_version }));
   },
 
   async probeOfTank(tankId: number): Promise<{ id: number; intervalS: number } | null> {

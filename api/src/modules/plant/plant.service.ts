@@ -1,4 +1,4 @@
-import type { CircuitProcess, SiteSummary, TankSummary, TrendQuery, TrendResponse } from '../../../../shared/schemas/plant.ts';
+import type { CircuitProcess, RecentReading, SiteSummary, TankSummary, TrendQuery, TrendResponse } from '../../../../shared/schemas/plant.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { plantRepository } from './plant.repository.ts';
 import { queryTrend } from './trend.repository.ts';
@@ -7,11 +7,15 @@ import { onReadReplica } from '../../cluster/read-db.ts';
 export const plantService = {
   tree: () => plantRepository.tree(),
 
-  async tank(id: number): Promise<{ tank: TankSummary; site: Omit<SiteSummary, 'circuits'>; circuit: { id: number; tag: string; name: string; process: CircuitProcess } } | null> {
+  async tank(id: number): Promise<{
+    tank: TankSummary; site: Omit<SiteSummary, 'circuits'>; circuit: { id: number; tag: string; name: string; process: CircuitProcess }; recent: RecentReading[];
+  } | null> {
     for (const s of await plantRepository.tree()) {
       for (const c of s.circuits) {
         const tank = c.tanks.find((t) => t.id === id);
-        if (tank) return { tank, site: { id: s.id, tag: s.tag, name: s.name, timeZone: s.timeZone }, circuit: { id: c.id, tag: c.tag, name: c.name, process: c.process } };
+        if (!tank) continue;
+        const recent = tank.probe ? await plantRepository.recentReadings(tank.probe.id, 10) : [];
+        return { tank, site: { id: s.id, tag: s.tag, name: s.name, timeZone: s.timeZone }, circuit: { id: c.id, tag: c.tag, name: c.name, process: c.process }, recent };
       }
     }
     return null;

@@ -61,7 +61,7 @@ export function PlantParts({ canEditStructure, canEditField }: { canEditStructur
       />
     ) : null;
   const add = (label: string, onClick: () => void, allowed: boolean) =>
-    allowed ? <Button size="sm" onClick={onClick}>{label}</Button> : null;
+    allowed ? <div><Button size="sm" onClick={onClick}>{label}</Button></div> : null;
   const edit = (allowed: boolean, onClick: () => void) =>
     allowed ? <button type="button" className="text-sm text-info-ink underline" onClick={onClick}>Edit</button> : null;
   const retiredNote = (r: { retiredAt: string | null }) => (r.retiredAt ? <span className="text-sm text-ink-muted">retired</span> : null);

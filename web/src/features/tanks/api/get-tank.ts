@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TankSummary } from '@shared/schemas/plant';
+import type { RecentReading, TankSummary } from '@shared/schemas/plant';
 import { api } from '../../../lib/api-client';
 import { FALLBACK_POLL_MS, useIsLive } from '../../../lib/socket';
 import { tankKeys } from './tank-keys';
@@ -8,6 +8,8 @@ export type TankDetail = {
   tank: TankSummary;
   site: { id: number; tag: string; name: string; timeZone: string };
   circuit: { id: number; tag: string; name: string };
+  /** Newest stored readings with their calibration versions. */
+  recent?: RecentReading[];
 };
 
 export function getTank(id: number, signal?: AbortSignal): Promise<TankDetail> {

@@ -10,6 +10,7 @@ import { rangeKey, useTrend } from '../api/get-trend';
 import { useTankLive } from '../hooks/use-tank-live';
 import { useTrendRange } from '../hooks/use-trend-range';
 import { RangePicker } from './range-picker';
+import { RecentReadings } from './recent-readings';
 import { TankFacts } from './tank-facts';
 import { TrendCharts } from './trend-charts';
 
@@ -82,6 +83,7 @@ export function TankView({ tankId, alarmsHref, definitionsHref }: { tankId: numb
       </div>
       <aside aria-label="Facts" className="min-h-0 min-w-0 rounded-lg border border-line bg-panel p-4 lg:overflow-auto">
         <TankFacts tank={tank} timeZone={site.timeZone} freshness={freshness} alarmsHref={alarmsHref} definitionsHref={definitionsHref} />
+        <RecentReadings readings={detail.data.recent ?? []} timeZone={site.timeZone} />
       </aside>
     </div>
   );
