@@ -11,7 +11,7 @@
  *   DATABASE_URL         mariadb://user:pw@host:port/db of an existing server: no private MariaDB
  *   MQTT_URL             mqtt(s)://… of an existing broker: no embedded broker
  *   SMTP_URL             smtp(s)://… of a real mail server: no mail catcher
- *   SIMULATOR=on         'off' on a real site: no simulated plant (simulators/plant.ts)
+ *   SIMULATOR=on         'off' on a real site: no simulated plant (simulators/plant.ts); off by default with DEMO=off
  *   DEMO                 'off': no demo plant or demo users; an empty database gets a one-time
  *                        link for its first admin. Default: off when SIMULATOR and DEMO_HISTORY
  *                        are both off, on otherwise
@@ -80,7 +80,8 @@ try {
   fail((err as Error).message);
   process.exit(1);
 }
-const SIMULATOR = (env.SIMULATOR ?? 'on').toLowerCase();
+// DEMO=off alone means a real site: no simulated plant either.
+const SIMULATOR = (env.SIMULATOR ?? (env.DEMO?.toLowerCase() === 'off' ? 'off' : 'on')).toLowerCase();
 if (SIMULATOR !== 'on' && SIMULATOR !== 'off') {
   fail(`SIMULATOR=${env.SIMULATOR} must be on or off`);
   process.exit(1);
