@@ -62,7 +62,7 @@ export async function seedDemo(databaseUrl: string, simDevicePassword: string, o
 /**
  * A real site (DEMO=off): no demo plant and no demo users. While the database has no users,
  * each start writes a fresh one-time link for creating the first admin to
- * DATA_DIR/first-run-link.txt (the start banner prints it); once someone exists, the file goes.
+ * FERRISIGHT_DATA_DIR/first-run-link.txt (the start banner prints it); once someone exists, the file goes.
  */
 export async function prepareFirstRun(databaseUrl: string, publicUrl: string, dataDir: string): Promise<string | null> {
   const sequelize = createSequelize(databaseUrl, 1);
@@ -88,7 +88,7 @@ if (process.argv[1] === fileURLToPath(import.meta.url)) {
   const pw = process.env.SIM_DEVICE_PASSWORD;
   if (url && process.env.DEMO === 'off') {
     const publicUrl = process.env.PUBLIC_URL ?? `http://127.0.0.1:${process.env.PORT ?? 8470}`;
-    const link = await prepareFirstRun(url, publicUrl, process.env.DATA_DIR ?? '.data');
+    const link = await prepareFirstRun(url, publicUrl, process.env.FERRISIGHT_DATA_DIR ?? '.data');
     process.stdout.write(link ? 'seed: no demo data (DEMO=off); the first admin is created with a one-time link\n' : 'seed: no demo data (DEMO=off)\n');
     process.exit(0);
   }
