@@ -3,7 +3,7 @@ import type { QueryInterface } from 'sequelize';
 /**
  * Plant setup and commissioning:
  * - what holds readings (sites, circuits, tanks, probes, gateways) is retired, never deleted;
- *   circuits get a kind and tanks their usual total iron;
+ *   tanks get their usual total iron;
  * - a gateway has a display name next to its protocol-agnostic login (username);
  * - dead letters and conflicts carry a fingerprint (SHA-256 of what arrived), unique, so the
  *   same message again adds no second row; dead letters also keep who sent them, where they
@@ -15,7 +15,6 @@ export async function up({ context: qi }: { context: QueryInterface }): Promise<
   for (const t of ['sites', 'circuits', 'tanks', 'probes', 'devices']) {
     await q(`ALTER TABLE ${t} ADD COLUMN retired_at DATETIME(3) NULL`);
   }
-  await q("ALTER TABLE circuits ADD COLUMN kind VARCHAR(40) NOT NULL DEFAULT 'ferric-leach'");
   await q('ALTER TABLE tanks ADD COLUMN fe_total_g_per_l DOUBLE NULL');
   await q('ALTER TABLE devices ADD COLUMN name VARCHAR(120) NULL');
 
@@ -55,6 +54,5 @@ export async function down({ context: qi }: { context: QueryInterface }): Promis
     DROP COLUMN reason_kind, DROP COLUMN probe_tag, DROP COLUMN site_tag, DROP COLUMN gateway, DROP COLUMN fingerprint`);
   await q('ALTER TABLE devices DROP COLUMN name');
   await q('ALTER TABLE tanks DROP COLUMN fe_total_g_per_l');
-  await q('ALTER TABLE circuits DROP COLUMN kind');
   for (const t of ['devices', 'probes', 'tanks', 'circuits', 'sites']) await q(`ALTER TABLE ${t} DROP COLUMN retired_at`);
 }

@@ -3,6 +3,7 @@ import { LIGHT_SOLUTION } from '../redox/standards';
 import { emailSchema, passwordSchema } from './auth.ts';
 import type { GatewayLive } from './ingest-health.ts';
 import type { DeadLetterKind } from './dead-letters.ts';
+import type { CircuitProcess } from './plant.ts';
 
 /** Plant setup: sites, circuits, tanks, probes and gateways (README "Setting up a site"). */
 
@@ -25,16 +26,15 @@ const timeZone = z.string().trim().min(1, 'Enter a time zone').refine((tz) => {
 export const siteInputSchema = z.object({ tag, name, timeZone, reason: optionalReason });
 export const siteUpdateSchema = z.object({ name: name.optional(), timeZone: timeZone.optional(), reason: reasonSchema });
 
-export const CIRCUIT_KINDS = ['bioleach', 'ferric-leach', 'ferric-regeneration', 'other'] as const;
-export const CIRCUIT_KIND_LABELS: Record<(typeof CIRCUIT_KINDS)[number], string> = {
-  bioleach: 'Bioleach', 'ferric-leach': 'Ferric leach', 'ferric-regeneration': 'Ferric regeneration', other: 'Other',
-};
+/** What a circuit runs (circuits.process; the Dose advisor's default oxidant follows it). */
+export const CIRCUIT_PROCESSES = ['bioleach', 'ferric-leach', 'other'] as const satisfies readonly CircuitProcess[];
+export const CIRCUIT_PROCESS_LABELS: Record<CircuitProcess, string> = { bioleach: 'Bioleach', 'ferric-leach': 'Ferric leach', other: 'Other' };
 const order = z.coerce.number({ message: 'Enter a whole number' }).int('Enter a whole number').min(1, 'Counted from 1').max(999);
 export const circuitInputSchema = z.object({
-  siteId: id, tag, name, kind: z.enum(CIRCUIT_KINDS, { message: 'Pick a kind' }), position: order, reason: optionalReason,
+  siteId: id, tag, name, process: z.enum(CIRCUIT_PROCESSES, { message: 'Pick what the circuit runs' }), position: order, reason: optionalReason,
 });
 export const circuitUpdateSchema = z.object({
-  name: name.optional(), kind: z.enum(CIRCUIT_KINDS).optional(), position: order.optional(), reason: reasonSchema,
+  name: name.optional(), process: z.enum(CIRCUIT_PROCESSES).optional(), position: order.optional(), reason: reasonSchema,
 });
 
 /** The starting formal potential a new tank gets until its first assay calibration. */
@@ -101,7 +101,7 @@ export type GatewayInput = z.infer<typeof gatewayInputSchema>;
 export type GatewayUpdate = z.infer<typeof gatewayUpdateSchema>;
 
 export type SetupSite = { id: number; tag: string; name: string; timeZone: string; retiredAt: string | null };
-export type SetupCircuit = { id: number; siteId: number; tag: string; name: string; kind: string; position: number; retiredAt: string | null };
+export type SetupCircuit = { id: number; siteId: number; tag: string; name: string; process: CircuitProcess; position: number; retiredAt: string | null };
 export type SetupTank = {
   id: number; circuitId: number; tag: string; name: string; position: number; volumeM3: number;
   feTotalGPerL: number | null; retiredAt: string | null;

@@ -36,7 +36,7 @@ describe('plant setup, from an empty plant to a gateway', () => {
     let res = await as('admin', 'post', '/api/plant-setup/sites').send({ tag: 'heron', name: 'Heron Downs', timeZone: 'Australia/Perth' });
     expect(res.status).toBe(201);
     ids.site = res.body.site.id;
-    res = await as('admin', 'post', '/api/plant-setup/circuits').send({ siteId: ids.site, tag: 'L', name: 'Leach', kind: 'ferric-leach', position: 1 });
+    res = await as('admin', 'post', '/api/plant-setup/circuits').send({ siteId: ids.site, tag: 'L', name: 'Leach', process: 'ferric-leach', position: 1 });
     expect(res.status).toBe(201);
     expect(res.body.circuit.position).toBe(1);
     ids.circuit = res.body.circuit.id;

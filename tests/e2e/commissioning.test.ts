@@ -60,7 +60,7 @@ describe.skipIf(!SITE_URL || !FIRST_RUN)('commissioning a site from an empty dat
       await page.waitForURL((url) => url.pathname === '/plant-setup', { timeout: 15_000 });
 
       await addPart(page, 'Add site', { 'Site tag': 'heron', Name: 'Heron Downs', 'Time zone': 'Australia/Perth' });
-      await addPart(page, 'Add circuit', { 'Circuit tag': 'L', Name: 'Leach train', Kind: 'ferric-leach' });
+      await addPart(page, 'Add circuit', { 'Circuit tag': 'L', Name: 'Leach train', Process: 'ferric-leach' });
       await addPart(page, 'Add tank', { 'Tank tag': 'H1', Name: 'Leach 1', 'Working volume': '450', 'Ratio band low': '2', 'Ratio band high': '30' });
       await addPart(page, 'Add probe', { 'Probe tag': 'H1-ORP', 'Reporting interval': '1' });
       await addPart(page, 'Add gateway', { Username: 'heron-gw-1' });

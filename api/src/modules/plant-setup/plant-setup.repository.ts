@@ -8,7 +8,7 @@ const iso = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : nul
 
 export const toSite = (s: Site): SetupSite => ({ id: s.id, tag: s.tag, name: s.name, timeZone: s.timeZone, retiredAt: iso(s.retiredAt) });
 export const toCircuit = (c: Circuit): SetupCircuit => ({
-  id: c.id, siteId: c.siteId, tag: c.tag, name: c.name, kind: c.kind, position: c.position + 1, retiredAt: iso(c.retiredAt),
+  id: c.id, siteId: c.siteId, tag: c.tag, name: c.name, process: c.process, position: c.position + 1, retiredAt: iso(c.retiredAt),
 });
 export const toTank = (t: Tank): SetupTank => ({
   id: t.id, circuitId: t.circuitId, tag: t.tag, name: t.name, position: t.position + 1, volumeM3: t.volumeM3,

@@ -75,13 +75,13 @@ export function createPlantSetupService(gatewayStatus: GatewayStatus = () => nul
     async createCircuit(input: CircuitInput, userId: number) {
       await requireActive('site', input.siteId, 'Site');
       return repo.create({ entity: 'circuit', userId, reason: input.reason }, {
-        siteId: input.siteId, tag: input.tag, name: input.name, kind: input.kind, position: input.position - 1,
+        siteId: input.siteId, tag: input.tag, name: input.name, process: input.process, position: input.position - 1,
       });
     },
     async updateCircuit(id: number, input: CircuitUpdate, userId: number) {
       await requireActive('circuit', id, 'Circuit');
       return repo.update({ entity: 'circuit', userId, reason: input.reason }, id,
-        defined({ name: input.name, kind: input.kind, position: input.position === undefined ? undefined : input.position - 1 }));
+        defined({ name: input.name, process: input.process, position: input.position === undefined ? undefined : input.position - 1 }));
     },
 
     async createTank(input: TankInput, userId: number) {

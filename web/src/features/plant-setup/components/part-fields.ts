@@ -1,6 +1,6 @@
 import { REFERENCE_ELECTRODES } from '@shared/redox';
 import {
-  CIRCUIT_KINDS, CIRCUIT_KIND_LABELS, CUSTOM_REFERENCE, STARTING_FORMAL_POTENTIAL, type SetupCircuit, type SetupGateway, type SetupProbe,
+  CIRCUIT_PROCESSES, CIRCUIT_PROCESS_LABELS, CUSTOM_REFERENCE, STARTING_FORMAL_POTENTIAL, type SetupCircuit, type SetupGateway, type SetupProbe,
   type SetupSite, type SetupTank,
 } from '@shared/schemas/plant-setup';
 import type { FieldSpec } from './part-form';
@@ -18,11 +18,11 @@ export const siteValues = (s?: SetupSite) => ({ tag: s?.tag ?? '', name: s?.name
 export const CIRCUIT_FIELDS = (creating: boolean): FieldSpec[] => [
   ...(creating ? [{ ...tag('Circuit'), hint: 'Short label, unique within the site' }] : []),
   name,
-  { name: 'kind', label: 'Kind', type: 'select', options: CIRCUIT_KINDS.map((k) => ({ value: k, label: CIRCUIT_KIND_LABELS[k] })) },
+  { name: 'process', label: 'Process', type: 'select', options: CIRCUIT_PROCESSES.map((k) => ({ value: k, label: CIRCUIT_PROCESS_LABELS[k] })), hint: 'Bioleach circuits are dosed with air or oxygen, not peroxide (common practice)' },
   { name: 'position', label: 'Order on the Floor', type: 'number', hint: 'Counted from 1, top row first' },
 ];
 export const circuitValues = (c?: SetupCircuit, next = 1) => ({
-  tag: c?.tag ?? '', name: c?.name ?? '', kind: c?.kind ?? 'ferric-leach', position: String(c?.position ?? next),
+  tag: c?.tag ?? '', name: c?.name ?? '', process: c?.process ?? 'ferric-leach', position: String(c?.position ?? next),
 });
 
 export const TANK_FIELDS = (creating: boolean): FieldSpec[] => [

@@ -1,6 +1,6 @@
 import { useState, type ReactNode } from 'react';
 import {
-  CIRCUIT_KIND_LABELS, circuitInputSchema, circuitUpdateSchema, gatewayInputSchema, gatewayUpdateSchema, probeInputSchema, probeUpdateSchema,
+  CIRCUIT_PROCESS_LABELS, circuitInputSchema, circuitUpdateSchema, gatewayInputSchema, gatewayUpdateSchema, probeInputSchema, probeUpdateSchema,
   siteInputSchema, siteUpdateSchema, tankInputSchema, tankUpdateSchema, type GatewaySecret, type PlantSetup, type SetupGateway,
 } from '@shared/schemas/plant-setup';
 import type { z } from 'zod';
@@ -99,7 +99,7 @@ export function PlantParts({ canEditStructure, canEditField }: { canEditStructur
                   <section key={c.id} aria-label={`Circuit ${c.tag}`} className="rounded-md border border-line p-3">
                     <div className="flex flex-wrap items-baseline gap-3">
                       <h3 className="font-bold">{c.position}. {c.name}</h3>
-                      <span className="text-sm text-ink-muted">{c.tag} · {CIRCUIT_KIND_LABELS[c.kind as keyof typeof CIRCUIT_KIND_LABELS] ?? c.kind}</span>
+                      <span className="text-sm text-ink-muted">{c.tag} · {CIRCUIT_PROCESS_LABELS[c.process]}</span>
                       {retiredNote(c)}
                       {edit(canEditStructure && !c.retiredAt, () => open('circuits', c.id, `Edit circuit ${c.tag}`, CIRCUIT_FIELDS(false), circuitValues(c), `circuit-${c.id}`))}
                       {canEditStructure && !c.retiredAt && <RetireButton kind="circuits" id={c.id} label={`circuit ${c.tag}`} />}
