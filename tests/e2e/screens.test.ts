@@ -68,6 +68,10 @@ describe.skipIf(!BASE_URL)('Every screen from a phone to the wall', () => {
       await page.goto(appUrl('/plant-setup'));
       await screenReady(page);
       expect(await overflowX(page)).toBe(0);
+      // People are on Plant setup's admin tab.
+      await page.goto(appUrl('/plant-setup?tab=people'));
+      await screenReady(page);
+      expect(await overflowX(page)).toBe(0);
       await page.getByRole('button', { name: 'Add user…' }).click();
       await expect(page.getByLabel('E-mail').isVisible()).resolves.toBe(true);
       expect(await overflowX(page)).toBe(0);
