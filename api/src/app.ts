@@ -16,6 +16,7 @@ import { probeChecksRouter } from './modules/probe-checks/probe-checks.router.ts
 import { siteSettingsRouter } from './modules/site-settings/site-settings.router.ts';
 import type { AuthService } from './modules/auth/auth.service.ts';
 import { authRouter } from './modules/auth/auth.router.ts';
+import type { SignInLimitSettings } from './modules/auth/sign-in-limits.ts';
 import { ackRouter } from './modules/notify/ack.router.ts';
 import { mailRouter } from './modules/notify/mail.router.ts';
 import { plantRouter } from './modules/plant/plant.router.ts';
@@ -42,13 +43,17 @@ export type AppDeps = {
   ackSecret?: string;
   /** Where the local mail catcher stores what it receives (FERRISIGHT_DATA_DIR/mail). */
   mailDir?: string;
+  /** Express 'trust proxy': which peers may name the client in X-Forwarded-For (TRUST_PROXY); default none. */
+  trustProxy?: boolean | number | string[];
+  signInLimits?: SignInLimitSettings;
 };
 
 /** Builds the Express app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Forwarding headers are believed only from the proxies a site names; otherwise anyone could pick their address.
+  app.set('trust proxy', deps.trustProxy ?? false);
   app.use(helmet({
     contentSecurityPolicy: { directives: { 'img-src': ["'self'", 'data:'], 'connect-src': ["'self'"] } },
     strictTransportSecurity: { maxAge: 31_536_000 },
@@ -59,7 +64,7 @@ export function createApp(deps: AppDeps): Express {
     res.json({ ok: true });
   });
   const mounts: Array<[string, Router]> = [
-    ['/api/auth', authRouter(deps.auth, { secureCookie: deps.secureCookie ?? false, ttlS: deps.ttlS })],
+    ['/api/auth', authRouter(deps.auth, { secureCookie: deps.secureCookie ?? false, ttlS: deps.ttlS, limits: deps.signInLimits })],
     ['/api/users', usersRouter()],
     ['/api', plantRouter()],
     ['/api/admin', adminRouter(deps.bus)],

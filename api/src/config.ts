@@ -29,6 +29,15 @@ const schema = z.object({
   MAIL_FROM: z.string().default('Ferrisight <ferrisight@localhost>'),
   JWT_SECRET: z.string().min(32, 'must be at least 32 characters'),
   JWT_TTL_S: z.coerce.number().int().min(60).default(8 * 3600),
+  /**
+   * Proxies whose X-Forwarded-For names the client (sign-in limits, logs): Express 'trust proxy'
+   * values, comma-separated ('loopback', '10.0.0.5', '10.0.0.0/8') or a hop count; unset: none.
+   */
+  TRUST_PROXY: z
+    .string()
+    .regex(/^[\w.:/, -]+$/, 'addresses, subnets, loopback/linklocal/uniquelocal, or a hop count')
+    .transform((v): number | string[] => (/^\d+$/.test(v.trim()) ? Number(v) : v.split(',').map((x) => x.trim()).filter(Boolean)))
+    .optional(),
   WEB_DIST: z.string().default('dist/web'),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(90),
   INGEST_CLIENT_ID: z.string().default('ferrisight-ingest-1'),

@@ -2,8 +2,10 @@ import { Router } from 'express';
 import { AppError } from '../../lib/app-error.ts';
 import { requireRole } from '../../middleware/auth.ts';
 import { body } from '../../middleware/validate.ts';
+import { config } from '../../config.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { simCommandSchema } from '../../../../shared/schemas/simulator.ts';
+import { supervisedParts } from './supervisor-status.ts';
 
 /** Admin-only: simulator faults for demos and training, ingest health. */
 export function adminRouter(bus?: Bus): Router {
@@ -21,9 +23,10 @@ export function adminRouter(bus?: Bus): Router {
     await needBus().simCommand(cmd);
     res.status(202).json({ accepted: cmd });
   });
-  r.get('/ingest-health', (_req, res) => {
+  r.get('/ingest-health', async (_req, res) => {
     // null until the worker (the embedded broker) has published its first snapshot.
-    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null });
+    const parts = await supervisedParts(config().FERRISIGHT_DATA_DIR);
+    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null, parts });
   });
   return r;
 }
