@@ -31,7 +31,8 @@ import type { Bus } from './realtime/bus.ts';
 export type AppDeps = {
   auth: AuthService;
   ttlS: number;
-  secureCookie?: boolean;
+  /** PUBLIC_URL is https: Secure cookie, HSTS and upgrade-insecure-requests. Over plain http none of them. */
+  https?: boolean;
   /** Built web app to serve; omitted in API tests. */
   webDist?: string;
   bus?: Bus;
@@ -54,9 +55,20 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   // Forwarding headers are believed only from the proxies a site names; otherwise anyone could pick their address.
   app.set('trust proxy', deps.trustProxy ?? false);
+  const https = deps.https ?? false;
   app.use(helmet({
-    contentSecurityPolicy: { directives: { 'img-src': ["'self'", 'data:'], 'connect-src': ["'self'"] } },
-    strictTransportSecurity: { maxAge: 31_536_000 },
+    contentSecurityPolicy: {
+      directives: {
+        'img-src': ["'self'", 'data:'],
+        'connect-src': ["'self'"],
+        'font-src': ["'self'"],
+        // No inline styles: the built CSS is a file, and React and uPlot set styles through the CSSOM.
+        'style-src': ["'self'"],
+        // Over plain http on a LAN host name this would send every asset to https, which is not there.
+        'upgrade-insecure-requests': https ? [] : null,
+      },
+    },
+    strictTransportSecurity: https ? { maxAge: 31_536_000 } : false,
   }));
   app.use('/api', express.json({ limit: '1mb' }), cookieParser(), csrfGuard, sessionMiddleware(deps.auth));
 
@@ -64,14 +76,14 @@ export function createApp(deps: AppDeps): Express {
     res.json({ ok: true });
   });
   const mounts: Array<[string, Router]> = [
-    ['/api/auth', authRouter(deps.auth, { secureCookie: deps.secureCookie ?? false, ttlS: deps.ttlS, limits: deps.signInLimits })],
+    ['/api/auth', authRouter(deps.auth, { secureCookie: https, ttlS: deps.ttlS, limits: deps.signInLimits })],
     ['/api/users', usersRouter()],
     ['/api', plantRouter()],
-    ['/api/admin', adminRouter(deps.bus)],
+    ['/api/admin', adminRouter(deps.bus, deps.dataDir)],
     ['/api/admin/mail', mailRouter(deps.mailDir)],
     ['/api/alarms', alarmsRouter()],
     ['/api/roster', rosterRouter()],
-    ['/ack', ackRouter(deps.ackSecret)],
+    ['/ack', ackRouter(deps.ackSecret, undefined, https)],
     ['/api/bands', bandsRouter(deps.bus)],
     ['/api/assays', assaysRouter()],
     ['/api/calibration', calibrationRouter(deps.bus)],

@@ -2,13 +2,12 @@ import { Router } from 'express';
 import { AppError } from '../../lib/app-error.ts';
 import { requireRole } from '../../middleware/auth.ts';
 import { body } from '../../middleware/validate.ts';
-import { config } from '../../config.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { simCommandSchema } from '../../../../shared/schemas/simulator.ts';
 import { supervisedParts } from './supervisor-status.ts';
 
 /** Admin-only: simulator faults for demos and training, ingest health. */
-export function adminRouter(bus?: Bus): Router {
+export function adminRouter(bus?: Bus, dataDir = '.data'): Router {
   const r = Router();
   r.use(requireRole('admin'));
   const needBus = () => {
@@ -25,7 +24,7 @@ export function adminRouter(bus?: Bus): Router {
   });
   r.get('/ingest-health', async (_req, res) => {
     // null until the worker (the embedded broker) has published its first snapshot.
-    const parts = await supervisedParts(config().FERRISIGHT_DATA_DIR);
+    const parts = await supervisedParts(dataDir);
     res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null, parts });
   });
   return r;
