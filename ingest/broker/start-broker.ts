@@ -12,6 +12,7 @@ import { disableDeliveryDedupe } from './delivery-dedupe.ts';
 import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
 import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
+import { storeBeforeAck } from './store-before-ack.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
 
 export type BrokerOptions = {
@@ -105,7 +106,8 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       // hostile traffic never fills the worker's session. Batches and plant checks stay with the worker.
       const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
-      if (!letter) return done();
+      // A sound message is on disk in every persistent session before its PUBACK.
+      if (!letter) return storeBeforeAck(broker, packet, done);
       edge!.add(letter, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;
         done();

@@ -45,8 +45,10 @@ describe.skipIf(!BASE_URL)('the app at a LAN host name over http', () => {
     expect(new URL(page.url()).host).toBe(`${LAN_HOST}:${port}`);
     await page.screenshot({ path: path.join(SHOTS, 'floor-lan-host.png') });
     expect(https).toEqual([]);
-    expect(problems.filter((p) => /Content Security Policy|ERR_|Refused/.test(p))).toEqual([]);
-    expect(problems).toEqual([]);
+    // What is left in the console is expected over http: the 401 of the session check before sign-in,
+    // and Chromium's note that it ignores Cross-Origin-Opener-Policy on an origin without TLS.
+    const expected = /status of 401|Cross-Origin-Opener-Policy header has been ignored/;
+    expect(problems.filter((p) => !expected.test(p))).toEqual([]);
   }, 60_000);
 
   it('when a page of another origin opens a socket to the app with the operator signed in, then the connection is refused', async () => {
