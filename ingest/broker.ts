@@ -18,6 +18,7 @@ async function main(): Promise<void> {
     servicePassword: cfg.SERVICE_MQTT_PASSWORD,
     serviceUser: cfg.SERVICE_MQTT_USER,
     maxConnections: cfg.MQTT_MAX_CONNECTIONS,
+    storeBeforeAck: cfg.MQTT_STORE_BEFORE_ACK === 'on',
     log,
   });
   let stopping = false;

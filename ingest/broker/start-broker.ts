@@ -31,6 +31,8 @@ export type BrokerOptions = {
    * site's own broker (MQTT_URL).
    */
   screenAtEdge?: boolean;
+  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (default true; store-before-ack.ts). */
+  storeBeforeAck?: boolean;
   log?: Logger;
 };
 
@@ -107,7 +109,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
       // A sound message is on disk in every persistent session before its PUBACK.
-      if (!letter) return storeBeforeAck(broker, packet, done);
+      if (!letter) return opts.storeBeforeAck === false ? done() : storeBeforeAck(broker, packet, done);
       edge!.add(letter, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;
         done();
