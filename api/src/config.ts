@@ -45,8 +45,8 @@ const schema = z.object({
   // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).
   MQTT_PORT: z.coerce.number().int().min(1).max(65535).default(8472),
   MQTT_MAX_CONNECTIONS: z.coerce.number().int().min(1).default(2000),
-  /** 'off' restores aedes's own order (PUBACK, then store): only to measure what storing first costs (npm run bench:ack). */
-  MQTT_STORE_BEFORE_ACK: z.enum(['on', 'off']).default('on'),
+  /** 'on': the embedded broker stores a device's QoS 1 message before its PUBACK (store-before-ack.ts); not ready, see README. */
+  MQTT_STORE_BEFORE_ACK: z.enum(['on', 'off']).default('off'),
   /** Folder for the broker's sessions, caught mail and uploads (the start script passes an absolute path). */
   FERRISIGHT_DATA_DIR: z.string().default('.data'),
   /** 'pipelined' acks after commit but keeps reading while a flush runs; 'serial' holds mqtt.js per message. */

@@ -12,7 +12,7 @@ import { disableDeliveryDedupe } from './delivery-dedupe.ts';
 import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
 import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
-import { storeBeforeAck } from './store-before-ack.ts';
+import { drainStoredTopic, storeBeforeAck } from './store-before-ack.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
 
 export type BrokerOptions = {
@@ -31,7 +31,7 @@ export type BrokerOptions = {
    * site's own broker (MQTT_URL).
    */
   screenAtEdge?: boolean;
-  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (default true; store-before-ack.ts). */
+  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (store-before-ack.ts; default false: not ready). */
   storeBeforeAck?: boolean;
   log?: Logger;
 };
@@ -108,8 +108,8 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       // hostile traffic never fills the worker's session. Batches and plant checks stay with the worker.
       const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
-      // A sound message is on disk in every persistent session before its PUBACK.
-      if (!letter) return opts.storeBeforeAck === false ? done() : storeBeforeAck(broker, packet, done);
+      // With storeBeforeAck, a sound message is on disk in every persistent session before its PUBACK.
+      if (!letter) return opts.storeBeforeAck ? storeBeforeAck(broker, packet, done) : done();
       edge!.add(letter, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;
         done();
@@ -125,6 +125,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     },
   });
 
+  if (opts.storeBeforeAck) drainStoredTopic(broker);
   // Health for Plant setup (retained, like the worker's), and a log line when something was refused.
   const startedAt = new Date().toISOString();
   let edgeLogged = 0;
