@@ -129,8 +129,8 @@ describe('band changes', () => {
   });
 
   it('when the window is set to 0 h, then each step is judged alone again', async () => {
-    const siteId = (await as(t, 'operator').get('/api/workbench/settings')).body.sites[0].siteId;
-    const set = await as(t, 'admin').put('/api/workbench/settings', { siteId, key: 'bandApprovalWindowH', value: 0, reason: 'Trial of single-step review' });
+    const siteId = (await as(t, 'operator').get('/api/site-settings')).body.sites[0].siteId;
+    const set = await as(t, 'admin').put('/api/site-settings', { siteId, key: 'bandApprovalWindowH', value: 0, reason: 'Trial of single-step review' });
     expect(set.body.settings.bandApprovalWindowH).toBe(0);
     const a4 = await tankId(t, 'A4');
     const m = as(t, 'metallurgist');
@@ -138,7 +138,7 @@ describe('band changes', () => {
     const statuses = [];
     for (const [low, high] of steps) statuses.push((await m.put(`/api/bands/${a4}`, { low, high, target: null, reason: 'Stepwise' })).body.change.status);
     expect(statuses).toEqual(['applied', 'applied', 'applied']);
-    await as(t, 'admin').put('/api/workbench/settings', { siteId, key: 'bandApprovalWindowH', value: 24, reason: 'Back to the site default' });
+    await as(t, 'admin').put('/api/site-settings', { siteId, key: 'bandApprovalWindowH', value: 24, reason: 'Back to the site default' });
   });
 
   it('when an admin raises the approval factor to 5, then a threefold change applies at once', async () => {
