@@ -20,6 +20,7 @@ async function main(): Promise<void> {
     maxConnections: cfg.MQTT_MAX_CONNECTIONS,
     maxConnectionsPerGateway: cfg.MQTT_MAX_CONNECTIONS_PER_GATEWAY,
     reservedServiceConnections: cfg.MQTT_RESERVED_SERVICE_CONNECTIONS,
+    storeBeforeAck: cfg.MQTT_STORE_BEFORE_ACK === 'on',
     log,
   });
   let stopping = false;

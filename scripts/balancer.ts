@@ -34,7 +34,7 @@ function pick(exclude?: string): string {
   return targets[next++ % targets.length]!;
 }
 
-// xfwd: the API trusts X-Forwarded-For from loopback (app.ts 'trust proxy'), so rate limits and logs see the real client.
+// xfwd: the API nodes trust X-Forwarded-For from loopback (TRUST_PROXY=loopback, set by start:cluster), so sign-in limits and logs see the real client.
 const proxy = httpProxy.createProxyServer({ xfwd: true, proxyTimeout: 60_000 });
 type Tagged = { target?: string; retried?: boolean };
 

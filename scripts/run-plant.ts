@@ -42,7 +42,7 @@
 import { existsSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { PartSupervisor, pipeLines, prefix, type PartSpec } from './lib/children.ts';
+import { PartSupervisor, pipeLines, prefix, restartDelayMs, type PartSpec } from './lib/children.ts';
 import { MariadbError, mariadbPid, mariadbQuery, sqlString, startMariadb, stopMariadb, type MariadbOptions } from './lib/mariadb.ts';
 import { isPortFree, parsePort, suggestPort } from './lib/ports.ts';
 import { pidAlive, seconds, sleep } from './lib/proc.ts';
@@ -107,7 +107,7 @@ const mailCatcher = !env.SMTP_URL;
 const dbOpts: MariadbOptions = { baseDir: path.join(DATA_DIR, 'mariadb'), port: DB_PORT, portSetting: 'DB_PORT' };
 
 // ---- shutdown -----------------------------------------------------------------------------
-const parts = new PartSupervisor(say, () => void shutdown(1), 5, () => writeRunFile());
+const parts = new PartSupervisor(say, () => writeRunFile());
 
 // <data folder>/supervisor.json (scripts/lib/run-file.ts): this supervisor's pid and its parts'
 // pids, to refuse a second supervisor on the same data folder and to clean up parts left
@@ -115,7 +115,7 @@ const parts = new PartSupervisor(say, () => void shutdown(1), 5, () => writeRunF
 const RUN_FILE = runFilePath(DATA_DIR);
 function writeRunFile(): void {
   try {
-    writeFileSync(RUN_FILE, JSON.stringify({ pid: process.pid, port: PORT, parts: parts.pids() }) + '\n', { mode: 0o600 });
+    writeFileSync(RUN_FILE, JSON.stringify({ pid: process.pid, port: PORT, parts: parts.pids(), states: parts.states() }) + '\n', { mode: 0o600 });
   } catch {
     /* best effort */
   }
@@ -132,6 +132,26 @@ async function claimDataDir(): Promise<void> {
   const stopped = await stopLeftoverParts(prev);
   if (stopped) say(`Stopped ${stopped} part(s) left running by an earlier start`);
   writeRunFile();
+  startGuard();
+}
+
+/** scripts/plant-guard.ts: stops the parts and MariaDB should this supervisor be killed outright. */
+function startGuard(): void {
+  const arg = JSON.stringify({ supervisorPid: process.pid, dataDir: DATA_DIR, db: privateDb ? dbOpts : null });
+  const guard = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'scripts/plant-guard.ts'), arg], { cwd: ROOT, stdio: 'ignore', detached: true });
+  guard.on('error', (err) => fail(`The guard did not start (${err.message}): parts would outlive a killed supervisor`));
+  guard.unref();
+}
+
+// A service manager or terminal that goes away without a signal (npm killed with SIGKILL, say)
+// re-parents this process: stop then, rather than run on with nobody to stop us.
+const parentAtStart = process.ppid;
+if (parentAtStart > 1) {
+  setInterval(() => {
+    if (stopping || process.ppid === parentAtStart) return;
+    say('The process that started Ferrisight is gone: stopping');
+    void shutdown(0);
+  }, 1000).unref();
 }
 let stopping = false;
 let dbStarted = false;
@@ -304,10 +324,13 @@ async function main(): Promise<void> {
     SMTP_PORT: String(SMTP_PORT),
     NODE_ENV: DEV ? 'development' : 'production',
     FERRISIGHT_DATA_DIR: DATA_DIR,
+    FERRISIGHT_SUPERVISOR_PID: String(process.pid),
     WEB_DIST,
     DEMO,
   };
   const tsx = (file: string) => [process.execPath, '--import', 'tsx', file];
+  // Parts also stop by themselves when this supervisor is gone (scripts/lib/parent-watch.ts).
+  const part = (file: string) => [process.execPath, '--import', 'tsx', '--import', path.join(ROOT, 'scripts/lib/parent-watch.ts'), file];
 
   // ---- migrations and seed ------------------------------------------------------------------
   for (const [name, file] of [
@@ -372,7 +395,7 @@ async function main(): Promise<void> {
   // --cluster: the same parts, some of them several times (scripts/lib/cluster-plan.ts).
   let redisUrl = '';
   const specs = (name: string, file: string): PartSpec[] => {
-    const one: PartSpec = { name, command: tsx(file), cwd: ROOT, env: { ...childEnv, FERRISIGHT_PROC: name } };
+    const one: PartSpec = { name, command: part(file), cwd: ROOT, env: { ...childEnv, FERRISIGHT_PROC: name } };
     return CLUSTER ? clusterParts(one, { REDIS_PORT, API_NODE_PORT, API_NODES, INGEST_WORKERS, PORT }, redisUrl) : [one];
   };
   if (CLUSTER) {
@@ -451,32 +474,29 @@ function banner(ms: number): void {
   say(lines.join('\n'));
 }
 
-/** Restarts the private MariaDB if it dies under us (same limit as the parts). */
+/** Restarts the private MariaDB if it dies under us, with the parts' growing back-off and no limit. */
 function watchDatabase(firstPid: number): void {
   let pid = firstPid;
-  const restarts: number[] = [];
+  let streak = 0;
+  let upSince = Date.now();
+  let notBefore = 0;
   let busy = false;
   dbWatch = setInterval(() => {
-    if (busy || stopping || pidAlive(pid)) return;
+    if (busy || stopping || pidAlive(pid) || Date.now() < notBefore) return;
     busy = true;
-    const now = Date.now();
-    while (restarts.length && now - restarts[0]! > 60_000) restarts.shift();
-    if (restarts.length >= 5) {
-      say('MariaDB keeps stopping: giving up');
-      void shutdown(1);
-      return;
-    }
-    restarts.push(now);
-    say('MariaDB stopped unexpectedly; restarting it');
+    streak = Date.now() - upSince >= 60_000 ? 1 : streak + 1;
+    say(`MariaDB stopped unexpectedly; restarting it${streak > 1 ? ` (${streak} stops in a row)` : ''}`);
     startDb()
       .then((s) => {
         pid = s.pid;
+        upSince = Date.now();
         say(`MariaDB restarted (pid ${s.pid})`);
       })
       .catch((err) => {
         if (stopping) return;
-        fail(err instanceof MariadbError ? err.message : String(err));
-        void shutdown(1);
+        const delay = restartDelayMs(streak);
+        notBefore = Date.now() + delay;
+        fail(`${err instanceof MariadbError ? err.message : String(err)}; trying again in ${delay / 1000} s`);
       })
       .finally(() => (busy = false));
   }, 1000);

@@ -16,6 +16,7 @@ import { probeChecksRouter } from './modules/probe-checks/probe-checks.router.ts
 import { siteSettingsRouter } from './modules/site-settings/site-settings.router.ts';
 import type { AuthService } from './modules/auth/auth.service.ts';
 import { authRouter } from './modules/auth/auth.router.ts';
+import type { SignInLimitSettings } from './modules/auth/sign-in-limits.ts';
 import { ackRouter } from './modules/notify/ack.router.ts';
 import { mailRouter } from './modules/notify/mail.router.ts';
 import { plantRouter } from './modules/plant/plant.router.ts';
@@ -33,7 +34,8 @@ import type { Bus } from './realtime/bus.ts';
 export type AppDeps = {
   auth: AuthService;
   ttlS: number;
-  secureCookie?: boolean;
+  /** PUBLIC_URL is https: Secure cookie, HSTS and upgrade-insecure-requests. Over plain http none of them. */
+  https?: boolean;
   /** Built web app to serve; omitted in API tests. */
   webDist?: string;
   bus?: Bus;
@@ -47,16 +49,31 @@ export type AppDeps = {
   deadLetterRetentionDays?: number;
   /** Where the local mail catcher stores what it receives (FERRISIGHT_DATA_DIR/mail). */
   mailDir?: string;
+  /** Express 'trust proxy': which peers may name the client in X-Forwarded-For (TRUST_PROXY); default none. */
+  trustProxy?: boolean | number | string[];
+  signInLimits?: SignInLimitSettings;
 };
 
 /** Builds the Express app without listening, so tests drive it with supertest. */
 export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Forwarding headers are believed only from the proxies a site names; otherwise anyone could pick their address.
+  app.set('trust proxy', deps.trustProxy ?? false);
+  const https = deps.https ?? false;
   app.use(helmet({
-    contentSecurityPolicy: { directives: { 'img-src': ["'self'", 'data:'], 'connect-src': ["'self'"] } },
-    strictTransportSecurity: { maxAge: 31_536_000 },
+    contentSecurityPolicy: {
+      directives: {
+        'img-src': ["'self'", 'data:'],
+        'connect-src': ["'self'"],
+        'font-src': ["'self'"],
+        // No inline styles: the built CSS is a file, and React and uPlot set styles through the CSSOM.
+        'style-src': ["'self'"],
+        // Over plain http on a LAN host name this would send every asset to https, which is not there.
+        'upgrade-insecure-requests': https ? [] : null,
+      },
+    },
+    strictTransportSecurity: https ? { maxAge: 31_536_000 } : false,
   }));
   app.use('/api', express.json({ limit: '1mb' }), cookieParser(), csrfGuard, sessionMiddleware(deps.auth));
 
@@ -64,17 +81,17 @@ export function createApp(deps: AppDeps): Express {
     res.json({ ok: true });
   });
   const mounts: Array<[string, Router]> = [
-    ['/api/auth', authRouter(deps.auth, { secureCookie: deps.secureCookie ?? false, ttlS: deps.ttlS })],
+    ['/api/auth', authRouter(deps.auth, { secureCookie: https, ttlS: deps.ttlS, limits: deps.signInLimits })],
     ['/api/users', usersRouter()],
     ['/api/first-run', firstRunRouter()],
     ['/api/plant-setup', plantSetupRouter(deps.bus)],
     ['/api/dead-letters', deadLettersRouter({ retentionDays: deps.deadLetterRetentionDays ?? 30 })],
     ['/api', plantRouter()],
-    ['/api/admin', adminRouter(deps.bus)],
+    ['/api/admin', adminRouter(deps.bus, deps.dataDir)],
     ['/api/admin/mail', mailRouter(deps.mailDir)],
     ['/api/alarms', alarmsRouter()],
     ['/api/roster', rosterRouter()],
-    ['/ack', ackRouter(deps.ackSecret)],
+    ['/ack', ackRouter(deps.ackSecret, undefined, https)],
     ['/api/bands', bandsRouter(deps.bus)],
     ['/api/assays', assaysRouter()],
     ['/api/calibration', calibrationRouter(deps.bus)],

@@ -29,6 +29,15 @@ const schema = z.object({
   MAIL_FROM: z.string().default('Ferrisight <ferrisight@localhost>'),
   JWT_SECRET: z.string().min(32, 'must be at least 32 characters'),
   JWT_TTL_S: z.coerce.number().int().min(60).default(8 * 3600),
+  /**
+   * Proxies whose X-Forwarded-For names the client (sign-in limits, logs): Express 'trust proxy'
+   * values, comma-separated ('loopback', '10.0.0.5', '10.0.0.0/8') or a hop count; unset: none.
+   */
+  TRUST_PROXY: z
+    .string()
+    .regex(/^[\w.:/, -]+$/, 'addresses, subnets, loopback/linklocal/uniquelocal, or a hop count')
+    .transform((v): number | string[] => (/^\d+$/.test(v.trim()) ? Number(v) : v.split(',').map((x) => x.trim()).filter(Boolean)))
+    .optional(),
   WEB_DIST: z.string().default('dist/web'),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(90),
   /** Dead letters and reading conflicts are deleted this many days after they arrived. */
@@ -42,6 +51,8 @@ const schema = z.object({
   // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).
   MQTT_PORT: z.coerce.number().int().min(1).max(65535).default(8472),
   MQTT_MAX_CONNECTIONS: z.coerce.number().int().min(1).default(2000),
+  /** 'on': the embedded broker stores a device's QoS 1 message before its PUBACK (store-before-ack.ts); not ready, see README. */
+  MQTT_STORE_BEFORE_ACK: z.enum(['on', 'off']).default('off'),
   /** Folder for the broker's sessions, caught mail and uploads (the start script passes an absolute path). */
   FERRISIGHT_DATA_DIR: z.string().default('.data'),
   /** 'pipelined' acks after commit but keeps reading while a flush runs; 'serial' holds mqtt.js per message. */

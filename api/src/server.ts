@@ -23,13 +23,13 @@ async function main(): Promise<void> {
   const auth = createAuthService({ jwtSecret: cfg.JWT_SECRET, ttlS: cfg.JWT_TTL_S });
   const bus = cfg.SERVICE_MQTT_PASSWORD ? new Bus(cfg.MQTT_URL, cfg.SERVICE_MQTT_USER, cfg.SERVICE_MQTT_PASSWORD) : undefined;
   if (!bus) logger.warn('SERVICE_MQTT_PASSWORD unset: no live values from the broker');
-  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, dataDir: cfg.FERRISIGHT_DATA_DIR, rawRetentionDays: cfg.RAW_RETENTION_DAYS, deadLetterRetentionDays: cfg.DEAD_LETTER_RETENTION_DAYS, ackSecret: cfg.JWT_SECRET, mailDir: path.resolve(cfg.FERRISIGHT_DATA_DIR, 'mail'), secureCookie: cfg.PUBLIC_URL?.startsWith('https://') ?? false });
+  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, dataDir: cfg.FERRISIGHT_DATA_DIR, rawRetentionDays: cfg.RAW_RETENTION_DAYS, deadLetterRetentionDays: cfg.DEAD_LETTER_RETENTION_DAYS, ackSecret: cfg.JWT_SECRET, mailDir: path.resolve(cfg.FERRISIGHT_DATA_DIR, 'mail'), https: cfg.PUBLIC_URL?.startsWith('https://') ?? false, trustProxy: cfg.TRUST_PROXY });
   const server = http.createServer(app);
   // Several API nodes (README "Scaling out"): socket.io through Redis, alarm broadcast by the lease holder.
   const cluster = cfg.REDIS_URL ? await connectSocketCluster(cfg.REDIS_URL) : undefined;
   const leasePool = cluster ? createIngestPool(cfg.DATABASE_URL, 1) : undefined;
   const alarmLease = leasePool ? new Lease(leasePool, 'alarm-feed', { ttlMs: cfg.LEASE_TTL_S * 1000 }).start() : undefined;
-  const realtime = attachRealtime(server, auth, bus, cluster && alarmLease ? { serverOptions: cluster.options, alarmLease } : undefined);
+  const realtime = attachRealtime(server, auth, bus, cluster && alarmLease ? { serverOptions: cluster.options, alarmLease } : undefined, cfg.PUBLIC_URL);
   const closeReplica = connectReadReplica(cfg.DATABASE_READ_URL);
 
   server.on('error', (err: NodeJS.ErrnoException) => {

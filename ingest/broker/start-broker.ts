@@ -13,6 +13,7 @@ import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
 import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
 import { GatewayConnections } from './gateway-connections.ts';
+import { drainStoredTopic, storeBeforeAck } from './store-before-ack.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
 import { limitPacketSize } from './packet-limit.ts';
 
@@ -36,6 +37,8 @@ export type BrokerOptions = {
    * site's own broker (MQTT_URL).
    */
   screenAtEdge?: boolean;
+  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (store-before-ack.ts; default false: not ready). */
+  storeBeforeAck?: boolean;
   log?: Logger;
 };
 
@@ -135,7 +138,8 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
         return;
       }
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
-      if (!letter) return done();
+      // With storeBeforeAck, a sound message is on disk in every persistent session before its PUBACK.
+      if (!letter) return opts.storeBeforeAck ? storeBeforeAck(broker, packet, done) : done();
       edge!.add({ ...letter, gateway: identity.username }, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;
         done();
@@ -151,6 +155,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     },
   });
 
+  if (opts.storeBeforeAck) drainStoredTopic(broker);
   // Health for Plant setup (retained, like the worker's), and a log line when something was refused.
   const startedAt = new Date().toISOString();
   let edgeLogged = 0;

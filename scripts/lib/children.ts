@@ -1,6 +1,9 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createInterface } from 'node:readline';
 import type { Readable, Writable } from 'node:stream';
+import type { PartState } from '../../shared/schemas/ingest-health.ts';
+
+export type { PartState };
 
 const useColour = Boolean(process.stdout.isTTY) && !process.env.NO_COLOR;
 const COLOURS: Record<string, number> = { broker: 35, mail: 34, api: 32, ingest: 33, sim: 36, web: 95, migrate: 90, seed: 90, vite: 90, redis: 31, lb: 32 };
@@ -34,13 +37,29 @@ interface Running {
   exited?: Promise<void>;
   restarts: number[];
   restartTimer?: NodeJS.Timeout;
+  /** Crashes in a row without a stable run in between: sets the back-off. */
+  streak: number;
+  startedAt: number;
+  state: PartState;
 }
+
+/**
+ * Pause before restart n of a streak: 1 s for the first 20 (a part that crashes now and then is
+ * back at once), then 2, 4, 8, 16 and 30 s from then on, so a part that cannot start
+ * (its database gone, a bad setting) keeps being tried without flooding the log.
+ */
+export function restartDelayMs(streak: number): number {
+  const QUICK = 20;
+  return streak <= QUICK ? 1000 : Math.min(30_000, 1000 * 2 ** (streak - QUICK));
+}
+/** A part that ran this long before exiting starts a new streak. */
+const STABLE_MS = 60_000;
 
 /**
  * Runs parts as child processes (each in its own process group, so a terminal Ctrl-C reaches
  * only the supervisor, which then stops them in order). A part that exits while the
- * supervisor is not stopping is restarted after 1 s; more than `maxRestarts` restarts within
- * a minute calls onGiveUp.
+ * supervisor is not stopping is restarted after a back-off that grows while it keeps
+ * crashing, without limit: one broken part never takes the others down with it.
  */
 export class PartSupervisor {
   private parts: Running[] = [];
@@ -48,10 +67,8 @@ export class PartSupervisor {
 
   constructor(
     private readonly log: (line: string) => void,
-    private readonly onGiveUp: (name: string) => void,
-    private readonly maxRestarts = 5,
-    /** Called after every (re)start, e.g. to record the pids. */
-    private readonly onSpawn: () => void = () => {},
+    /** Called after every (re)start and exit, e.g. to record pids and states. */
+    private readonly onChange: () => void = () => {},
   ) {}
 
   /** Running parts: name → pid. */
@@ -61,8 +78,17 @@ export class PartSupervisor {
     return out;
   }
 
+  states(): PartState[] {
+    const hourAgo = Date.now() - 3_600_000;
+    return this.parts.map((r) => ({ ...r.state, restartsLastHour: r.restarts.filter((t) => t > hourAgo).length }));
+  }
+
   start(spec: PartSpec): void {
-    const r: Running = { spec, restarts: [] };
+    const now = new Date().toISOString();
+    const r: Running = {
+      spec, restarts: [], streak: 0, startedAt: Date.now(),
+      state: { name: spec.name, state: 'running', pid: null, restarts: 0, restartsLastHour: 0, lastExit: null, nextStartAt: null, since: now },
+    };
     this.parts.push(r);
     this.launch(r);
   }
@@ -71,10 +97,12 @@ export class PartSupervisor {
     const [cmd, ...args] = r.spec.command;
     const child = spawn(cmd!, args, { cwd: r.spec.cwd, env: r.spec.env, stdio: ['ignore', 'pipe', 'pipe'], detached: true });
     r.child = child;
+    r.startedAt = Date.now();
+    Object.assign(r.state, { state: 'running', pid: child.pid ?? null, nextStartAt: null, since: new Date().toISOString() });
     const pre = prefix(r.spec.name);
     pipeLines(child.stdout!, process.stdout, pre);
     pipeLines(child.stderr!, process.stderr, pre);
-    this.onSpawn();
+    this.onChange();
     r.exited = new Promise((resolve) => {
       let ended = false;
       const onEnd = (how: string) => {
@@ -83,20 +111,25 @@ export class PartSupervisor {
         resolve();
         if (r.child !== child) return;
         r.child = undefined;
-        if (this.stopping) return;
         const now = Date.now();
-        r.restarts = r.restarts.filter((t) => now - t < 60_000);
-        if (r.restarts.length >= this.maxRestarts) {
-          this.log(`${r.spec.name} exited (${how}) and has been restarted ${this.maxRestarts} times in a minute: giving up`);
-          this.onGiveUp(r.spec.name);
+        r.state.lastExit = { at: new Date(now).toISOString(), how };
+        r.state.pid = null;
+        if (this.stopping) {
+          r.state.state = 'stopped';
           return;
         }
+        r.streak = now - r.startedAt >= STABLE_MS ? 1 : r.streak + 1;
+        r.restarts = r.restarts.filter((t) => now - t < 3_600_000);
         r.restarts.push(now);
-        this.log(`${r.spec.name} exited unexpectedly (${how}); restarting in 1 s`);
+        r.state.restarts += 1;
+        const delay = restartDelayMs(r.streak);
+        Object.assign(r.state, { state: 'restarting', nextStartAt: new Date(now + delay).toISOString(), since: new Date(now).toISOString() });
+        this.log(`${r.spec.name} exited unexpectedly (${how}); restarting in ${delay / 1000} s${r.streak > 1 ? ` (${r.streak} exits in a row)` : ''}`);
+        this.onChange();
         r.restartTimer = setTimeout(() => {
           r.restartTimer = undefined;
           if (!this.stopping) this.launch(r);
-        }, 1000);
+        }, delay);
       };
       child.on('error', (err) => onEnd(`could not start: ${err.message}`));
       child.on('exit', (code, signal) => onEnd(signal ? `signal ${signal}` : `code ${code}`));
@@ -108,6 +141,7 @@ export class PartSupervisor {
     this.stopping = true;
     for (const r of [...this.parts].reverse()) {
       if (r.restartTimer) clearTimeout(r.restartTimer);
+      r.state.state = 'stopped';
       const child = r.child;
       if (!child || child.exitCode !== null || child.signalCode !== null) continue;
       killGroup(child, 'SIGTERM');

@@ -52,7 +52,7 @@ export function clusterParts(one: PartSpec, s: ClusterSettings & { PORT: number 
   const base = one.name;
   const range = (n: number) => Array.from({ length: n }, (_, k) => k + 1);
   if (base === 'api') {
-    const nodes = range(s.API_NODES).map((k) => copy(`api${k}`, { PORT: String(s.API_NODE_PORT + k - 1), REDIS_URL: redisUrl }));
+    const nodes = range(s.API_NODES).map((k) => copy(`api${k}`, { PORT: String(s.API_NODE_PORT + k - 1), REDIS_URL: redisUrl, TRUST_PROXY: one.env.TRUST_PROXY ?? 'loopback' }));
     const targets = nodes.map((n) => `http://127.0.0.1:${n.env.PORT}`).join(',');
     const lb: PartSpec = {
       ...one, name: 'lb', command: [...one.command.slice(0, -1), path.join(one.cwd, 'scripts/balancer.ts')],

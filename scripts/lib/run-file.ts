@@ -1,13 +1,14 @@
 /**
  * <data folder>/supervisor.json: the running plant supervisor's pid, its port and its parts'
- * pids (scripts/run-plant.ts writes it). Used to refuse a second supervisor on the same data
+ * pids and states (scripts/run-plant.ts writes it; the API shows the states in Plant setup). Used to refuse a second supervisor on the same data
  * folder, and to clean up after a supervisor that was killed before it could stop its parts.
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
+import type { PartState } from '../../shared/schemas/ingest-health.ts';
 import { pidAlive, waitForExit } from './proc.ts';
 
-export type RunFile = { pid?: number; port?: number; parts?: Record<string, number> };
+export type RunFile = { pid?: number; port?: number; parts?: Record<string, number>; states?: PartState[] };
 
 export const runFilePath = (dataDir: string) => path.join(dataDir, 'supervisor.json');
 
@@ -42,15 +43,16 @@ async function stopGroup(pids: number[], timeoutMs: number): Promise<void> {
     }
   };
   for (const pid of pids) signal(pid, 'SIGTERM');
-  for (const pid of pids) if (!(await waitForExit(pid, timeoutMs))) signal(pid, 'SIGKILL');
+  const until = Date.now() + timeoutMs;
+  for (const pid of pids) if (!(await waitForExit(pid, Math.max(0, until - Date.now())))) signal(pid, 'SIGKILL');
 }
 
 /**
  * Stops the parts a killed supervisor left running (each runs in its own process group).
  * @returns how many there were
  */
-export async function stopLeftoverParts(run: RunFile): Promise<number> {
+export async function stopLeftoverParts(run: RunFile, timeoutMs = 10_000): Promise<number> {
   const leftovers = Object.values(run.parts ?? {}).filter((pid) => pidAlive(pid) && / --import tsx |^redis-server /.test(cmdline(pid)));
-  await stopGroup(leftovers, 10_000);
+  await stopGroup(leftovers, timeoutMs);
   return leftovers.length;
 }

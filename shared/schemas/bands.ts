@@ -53,6 +53,8 @@ export type BandChange = {
   requestedAt: string;
   needsApproval: boolean;
   copiedFromTankId: number | null;
+  /** Set when earlier changes in the approval window add up with this one: the band it was judged against. */
+  cumulativeFrom: { band: BandValues; since: string } | null;
   status: BandChangeStatus;
   decision: { by: { id: number; name: string }; at: string; note: string | null } | null;
 };

@@ -43,3 +43,21 @@ export const brokerHealthSchema = z.object({
   gateways: z.array(gatewayLiveSchema).optional(),
 });
 export type BrokerHealth = z.infer<typeof brokerHealthSchema>;
+
+/** One part as the plant supervisor sees it (npm start writes these to its run file). */
+export const partStateSchema = z.object({
+  name: z.string().max(40),
+  state: z.enum(['running', 'restarting', 'stopped']),
+  pid: z.number().int().nullable(),
+  /** Restarts since the supervisor started, and within the last hour. */
+  restarts: z.number().int().min(0),
+  restartsLastHour: z.number().int().min(0),
+  lastExit: z.object({ at: z.string(), how: z.string().max(200) }).nullable(),
+  /** When a part that is restarting will be started again (the back-off grows while it keeps crashing). */
+  nextStartAt: z.string().nullable(),
+  since: z.string(),
+});
+export type PartState = z.infer<typeof partStateSchema>;
+
+/** The part of the supervisor's run file the API reads. */
+export const supervisorRunFileSchema = z.object({ pid: z.number().int(), states: z.array(partStateSchema).default([]) });

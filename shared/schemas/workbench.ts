@@ -7,6 +7,8 @@ import { z } from 'zod';
 export const SITE_SETTINGS = {
   /** A band change moving either bound by more than this factor needs a second person. */
   bandApprovalFactor: { schema: z.number().min(1.01).max(100), default: 2, label: 'Band change needing approval (factor)', unit: '×' },
+  /** Band changes within this many hours add up: the factor is judged against the band in force at the window's start. */
+  bandApprovalWindowH: { schema: z.number().min(0).max(720), default: 24, label: 'Band changes add up over', unit: 'h' },
   /** Readings within ± this many minutes of an assay's sampling time are matched to it. */
   assayMatchWindowMin: { schema: z.number().min(0.5).max(240), default: 10, label: 'Assay match window', unit: 'min' },
   /** The temperature coefficient is fitted only when the assays span at least this much. */

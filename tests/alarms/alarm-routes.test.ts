@@ -1,3 +1,4 @@
+import { parse } from 'csv-parse/sync';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -157,6 +158,36 @@ describe('Alarm desk routes', () => {
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     expect(csv.text.split('\n')[0]).toMatch(/^id,site,circuit,tank,alarm,priority/);
     expect(csv.text).toMatch(/A2,Fe³⁺\/Fe²⁺ ratio below band,P1/);
+  });
+
+  it('when the site, circuit and tank tags and the acknowledging name start like formulas, then every such cell of the history CSV is escaped (OWASP "CSV Injection")', async () => {
+    const from = new Date(Date.now() - 3_600_000).toISOString();
+    const to = new Date(Date.now() + 60_000).toISOString();
+    const evil = { site: '=HYPERLINK("http://evil.example")', circuit: '+cmd|calc', tank: '@SUM(1+1)', name: '-2+3' };
+    const q = (sql: string, r: unknown[]) => t.sequelize.query(sql, { replacements: r });
+    const [site] = await t.sequelize.query<{ id: number; tag: string }>('SELECT id, tag FROM sites ORDER BY id LIMIT 1', { type: QueryTypes.SELECT });
+    const [circuit] = await t.sequelize.query<{ id: number; tag: string }>('SELECT c.id, c.tag FROM circuits c JOIN tanks k ON k.circuit_id = c.id WHERE k.id = ?', { replacements: [t.tanks.A2.id], type: QueryTypes.SELECT });
+    await q('UPDATE sites SET tag = ? WHERE id = ?', [evil.site, site.id]);
+    await q('UPDATE circuits SET tag = ? WHERE id = ?', [evil.circuit, circuit.id]);
+    await q('UPDATE tanks SET tag = ? WHERE id = ?', [evil.tank, t.tanks.A2.id]);
+    await q('UPDATE alarm_instances SET acked_by = ?, acked_at = COALESCE(acked_at, NOW(3)) WHERE tank_id = ?', [evil.name, t.tanks.A2.id]);
+    try {
+      const csv = await get(`/api/alarms/history/export?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`);
+      const [header, ...data] = parse(csv.text) as string[][];
+      const row = data.find((r) => r[header.indexOf('tank')] === `'${evil.tank}`)!;
+      expect(row, csv.text).toBeDefined();
+      expect(row[header.indexOf('site')]).toBe(`'${evil.site}`);
+      expect(row[header.indexOf('circuit')]).toBe(`'${evil.circuit}`);
+      expect(row[header.indexOf('acknowledged_by')]).toBe(`'${evil.name}`);
+      // No cell anywhere may start a formula; numbers (ids, values, limits) are not text.
+      const numeric = new Set(['id', 'seconds_to_acknowledge', 'value_at_activation', 'limit']);
+      const textCells = data.flatMap((r) => r.filter((_, i) => !numeric.has(header[i]!)));
+      expect(textCells.filter((c) => /^[=+\-@\t\r]/.test(c))).toEqual([]);
+    } finally {
+      await q('UPDATE sites SET tag = ? WHERE id = ?', [site.tag, site.id]);
+      await q('UPDATE circuits SET tag = ? WHERE id = ?', [circuit.tag, circuit.id]);
+      await q('UPDATE tanks SET tag = ? WHERE id = ?', ['A2', t.tanks.A2.id]);
+    }
   });
 
   it('when figures are asked for, then they count the alarms of the window and carry their targets', async () => {

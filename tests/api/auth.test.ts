@@ -1,10 +1,11 @@
 import jwt from 'jsonwebtoken';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Express } from 'express';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createApp } from '../../api/src/app.ts';
 import { User } from '../../api/src/db/models.ts';
 import { BCRYPT_COST, createAuthService } from '../../api/src/modules/auth/auth.service.ts';
-import { LoginThrottle } from '../../api/src/modules/auth/login-throttle.ts';
+import { SIGN_IN_LIMITS } from '../../api/src/modules/auth/sign-in-limits.ts';
 import { issueToken } from '../../api/src/modules/auth/tokens.ts';
 import { createTestApi, signIn, TEST_PASSWORD, TEST_SECRET, type TestApi } from '../helpers/api.ts';
 
@@ -55,22 +56,80 @@ describe('sign-in', () => {
   });
 });
 
-describe('throttling', () => {
-  it('when an account fails 5 times, then the 6th attempt gets 429 with Retry-After, even with the right password', async () => {
-    const throttled = createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }, new LoginThrottle(5, 20)), ttlS: 3600 });
-    const attempt = (password: string) => request(throttled).post('/api/auth/sign-in').set('X-Ferrisight-Csrf', '1').send({ email: 't-supervisor@test.example', password });
-    for (let i = 0; i < 5; i++) expect((await attempt('wrong-password')).status).toBe(401);
-    const blocked = await attempt(TEST_PASSWORD);
+describe('sign-in limits (OWASP ASVS 5.0 6.1.1, 6.3.1: anti-automation without a lock-out by strangers)', () => {
+  const limits = { ...SIGN_IN_LIMITS, perAccountAddress: 5, perAddress: 30, accountSlowAfter: 10, delayStepMs: 50, maxDelayMs: 1000 };
+  const node = (trustProxy?: string[]) => createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }), ttlS: 3600, trustProxy, signInLimits: limits });
+  const attempt = (app: Express, email: string, password: string, from?: string) => {
+    const r = request(app).post('/api/auth/sign-in').set('X-Ferrisight-Csrf', '1');
+    return (from ? r.set('X-Forwarded-For', from) : r).send({ email, password });
+  };
+  const timed = async (p: PromiseLike<request.Response>) => {
+    const t0 = performance.now();
+    const res = await p;
+    return { res, ms: performance.now() - t0 };
+  };
+
+  it('when X-Forwarded-For rotates from a peer that is not a trusted proxy, then every attempt counts for the one real address and the 6th gets 429 with Retry-After', async () => {
+    const app = node();
+    for (let i = 0; i < 5; i++) expect((await attempt(app, 't-supervisor@test.example', 'wrong-password', `198.51.100.${i + 1}`)).status).toBe(401);
+    const blocked = await attempt(app, 't-supervisor@test.example', 'wrong-password', '198.51.100.99');
     expect(blocked.status).toBe(429);
+    expect(blocked.headers['content-type']).toMatch(/application\/problem\+json/);
     expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
   });
 
-  it('when the window has passed, then sign-in works again', () => {
-    const th = new LoginThrottle(2, 20, 1000);
-    th.fail('a@x', '1.1.1.1', 0);
-    th.fail('a@x', '1.1.1.1', 10);
-    expect(th.retryAfterS('a@x', '1.1.1.1', 20)).toBeGreaterThan(0);
-    expect(th.retryAfterS('a@x', '1.1.1.1', 1011)).toBe(0);
+  it('when one address tries many accounts, then it is refused after the per-address limit, also for accounts it has not tried yet', async () => {
+    const app = createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }), ttlS: 3600, trustProxy: ['loopback'], signInLimits: { ...limits, perAddress: 12 } });
+    const roles = ['operator', 'supervisor', 'metallurgist', 'engineer', 'admin'];
+    const statuses: number[] = [];
+    for (let i = 0; i < 13; i++) statuses.push((await attempt(app, `t-${roles[i % roles.length]}@test.example`, 'wrong-password', '198.51.100.150')).status);
+    expect(statuses).toEqual([...Array(12).fill(401), 429]);
+    expect((await attempt(app, 't-engineer@test.example', TEST_PASSWORD, '198.51.100.150')).status).toBe(429);
+  });
+
+  it('when the proxy is trusted, then each forwarded client is counted on its own', async () => {
+    const app = node(['loopback']);
+    for (let i = 0; i < 7; i++) expect((await attempt(app, 't-engineer@test.example', 'wrong-password', `192.0.2.${i + 1}`)).status).toBe(401);
+    expect((await attempt(app, 't-engineer@test.example', TEST_PASSWORD, '192.0.2.200')).status).toBe(200);
+  });
+
+  it('when 50 attempts fail for an account from another address, then its user signs in at once from their own address', async () => {
+    const app = node(['loopback']);
+    const own = '203.0.113.77';
+    expect((await attempt(app, 't-metallurgist@test.example', TEST_PASSWORD, own)).status).toBe(200);
+    const statuses: number[] = [];
+    for (let i = 0; i < 50; i++) statuses.push((await attempt(app, 't-metallurgist@test.example', 'wrong-password', '198.51.100.66')).status);
+    expect(statuses.filter((s) => s === 401)).toHaveLength(5);
+    expect(statuses.filter((s) => s === 429)).toHaveLength(45);
+    const { res, ms } = await timed(attempt(app, 't-metallurgist@test.example', TEST_PASSWORD, own));
+    expect(res.status).toBe(200);
+    expect(ms).toBeLessThan(limits.delayStepMs * 5);
+  });
+
+  it('when 50 attempts fail for an account from 50 addresses, then attempts from other addresses are slowed, not refused, and its user signs in at once from their own address', async () => {
+    const app = node(['loopback']);
+    const own = '203.0.113.78';
+    await vi.waitFor(async () => expect((await attempt(app, 't-admin@test.example', TEST_PASSWORD, own)).status).toBe(200));
+    // The success above marks the address as the account's own; give the write its moment.
+    await new Promise((r) => setTimeout(r, 200));
+    for (let batch = 0; batch < 5; batch++) {
+      const rs = await Promise.all(Array.from({ length: 10 }, (_, i) => attempt(app, 't-admin@test.example', 'wrong-password', `100.64.${batch}.${i + 1}`)));
+      for (const r of rs) expect(r.status).toBe(401);
+    }
+    const stranger = await timed(attempt(app, 't-admin@test.example', TEST_PASSWORD, '100.64.9.9'));
+    expect(stranger.res.status).toBe(200);
+    expect(stranger.ms).toBeGreaterThanOrEqual(limits.maxDelayMs * 0.9);
+    const owner = await timed(attempt(app, 't-admin@test.example', TEST_PASSWORD, own));
+    expect(owner.res.status).toBe(200);
+    expect(owner.ms).toBeLessThan(limits.delayStepMs * 5);
+  });
+
+  it('when attempts alternate between two API nodes, then the limit is shared: the 6th is refused', async () => {
+    const [a, b] = [node(['loopback']), node(['loopback'])];
+    const statuses: number[] = [];
+    for (let i = 0; i < 6; i++) statuses.push((await attempt(i % 2 ? b : a, 't-operator@test.example', 'wrong-password', '198.51.100.201')).status);
+    expect(statuses).toEqual([401, 401, 401, 401, 401, 429]);
+    expect((await attempt(a, 't-operator@test.example', TEST_PASSWORD, '198.51.100.202')).status).toBe(200);
   });
 });
 
@@ -138,7 +197,8 @@ describe('conventions', () => {
   it('when responses go out, then security headers are set', async () => {
     const res = await request(t.app).get('/api/health');
     expect(res.headers['x-content-type-options']).toBe('nosniff');
-    expect(res.headers['strict-transport-security']).toMatch(/max-age=31536000/);
+    // HSTS only where PUBLIC_URL is https (tests/security/http-hardening.test.ts covers both).
+    expect(res.headers['strict-transport-security']).toBeUndefined();
     expect(res.headers['access-control-allow-origin']).toBeUndefined();
   });
 });

@@ -5,7 +5,6 @@ import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../api/src/app.ts';
 import { createAuthService } from '../../api/src/modules/auth/auth.service.ts';
-import { LoginThrottle } from '../../api/src/modules/auth/login-throttle.ts';
 import { TEST_SECRET } from '../helpers/api.ts';
 
 describe('the built web app', () => {
@@ -15,7 +14,7 @@ describe('the built web app', () => {
   mkdirSync(path.join(dist, 'assets'), { recursive: true });
   writeFileSync(path.join(dist, 'index.html'), '<!doctype html><title>Ferrisight shell</title>');
   writeFileSync(path.join(dist, 'assets', 'app.js'), 'export {};');
-  const app = createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }, new LoginThrottle(1000, 1000)), ttlS: 3600, webDist: dist });
+  const app = createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }), ttlS: 3600, webDist: dist });
   afterAll(() => rmSync(root, { recursive: true, force: true }));
 
   it('when it sits below a dot folder, then client routes get the app shell and assets are served', async () => {

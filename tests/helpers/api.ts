@@ -6,7 +6,6 @@ import { createApp } from '../../api/src/app.ts';
 import { User, initModels } from '../../api/src/db/models.ts';
 import { Database } from '../../api/src/db/database.ts';
 import { createAuthService, type AuthService } from '../../api/src/modules/auth/auth.service.ts';
-import { LoginThrottle } from '../../api/src/modules/auth/login-throttle.ts';
 import { ROLES, type Role } from '../../shared/schemas/auth.ts';
 import { seedDemo } from '../../scripts/seed.ts';
 import { createTestDatabase } from './test-db.ts';
@@ -26,7 +25,7 @@ export type TestApi = {
 };
 
 /** A fresh database with the demo plant, one user per role (password TEST_PASSWORD) and an app on it. */
-export async function createTestApi(opts: { seedPlant?: boolean; throttle?: LoginThrottle } = {}): Promise<TestApi> {
+export async function createTestApi(opts: { seedPlant?: boolean } = {}): Promise<TestApi> {
   const db = await createTestDatabase();
   if (opts.seedPlant ?? true) await seedDemo(db.databaseUrl, 'sim-device-password-for-tests');
   const database = new Database(db.databaseUrl, { poolMax: 5 });
@@ -41,7 +40,7 @@ export async function createTestApi(opts: { seedPlant?: boolean; throttle?: Logi
     });
     users[role] = u.id;
   }
-  const auth = createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }, opts.throttle ?? new LoginThrottle(1000, 1000));
+  const auth = createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 });
   const app = createApp({ auth, ttlS: 3600 });
   const cookies = {} as Record<Role, string>;
   for (const role of ROLES) cookies[role] = await signIn(app, `t-${role}@test.example`, TEST_PASSWORD);

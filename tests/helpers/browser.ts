@@ -15,11 +15,11 @@ const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--no-firs
 /** An address in the app under test. */
 export const appUrl = (pathAndQuery: string) => new URL(pathAndQuery, BASE_URL).href;
 
-/** Checks the password is set, makes the screenshot folder and starts Chromium. */
-export async function launchBrowser(): Promise<Browser> {
+/** Checks the password is set, makes the screenshot folder and starts Chromium (with any extra switches). */
+export async function launchBrowser(extraArgs: string[] = []): Promise<Browser> {
   if (!PASSWORD) throw new Error("E2E_PASSWORD must be set to the demo users' password");
   fs.mkdirSync(SHOTS, { recursive: true });
-  return chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  return chromium.launch({ executablePath: '/usr/bin/chromium', args: [...CHROMIUM_ARGS, ...extraArgs] });
 }
 
 export async function signIn(page: Page, role: string): Promise<void> {

@@ -11,7 +11,6 @@ import { createApp } from '../../api/src/app.ts';
 import { initModels } from '../../api/src/db/models.ts';
 import { createSequelize } from '../../api/src/db/sequelize.ts';
 import { createAuthService } from '../../api/src/modules/auth/auth.service.ts';
-import { LoginThrottle } from '../../api/src/modules/auth/login-throttle.ts';
 import { APPEND_ONLY_TABLES, unclassifiedTables } from '../../scripts/lib/grants.ts';
 import { seedDemo } from '../../scripts/seed.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db.ts';
@@ -76,7 +75,7 @@ describe('database grants of the app user', () => {
 
 describe('the API under the app user\'s grants', () => {
   it('when 1,000 band changes arrive at once over 10 tanks, then all are applied and exactly 1,000 audit rows are written', async () => {
-    const auth = createAuthService({ jwtSecret: 'grants-test-secret-0123456789-0123456789', ttlS: 3600 }, new LoginThrottle(1000, 1000));
+    const auth = createAuthService({ jwtSecret: 'grants-test-secret-0123456789-0123456789', ttlS: 3600 });
     const api = createApp({ auth, ttlS: 3600 });
     const signIn = await request(api).post('/api/auth/sign-in').set('X-Ferrisight-Csrf', '1').send({ email: 'metallurgist@kestrel.example', password: 'kestrel-demo' });
     expect(signIn.status).toBe(200);
@@ -101,7 +100,7 @@ describe('the API under the app user\'s grants', () => {
   }, 120_000);
 
   it('when an admin disables and re-enables a user and someone signs out, then it works under the grants', async () => {
-    const auth = createAuthService({ jwtSecret: 'grants-test-secret-0123456789-0123456789', ttlS: 3600 }, new LoginThrottle(1000, 1000));
+    const auth = createAuthService({ jwtSecret: 'grants-test-secret-0123456789-0123456789', ttlS: 3600 });
     const api = createApp({ auth, ttlS: 3600 });
     const signIn = async (email: string) => String((await request(api).post('/api/auth/sign-in').set('X-Ferrisight-Csrf', '1').send({ email, password: 'kestrel-demo' })).headers['set-cookie']).split(';')[0];
     const admin = await signIn('admin@kestrel.example');

@@ -4,9 +4,11 @@
  * app.locals.routes, for every role, leaves every table's checksum unchanged), and CSRF: every
  * state-changing route without the X-Ferrisight-Csrf header is refused and changes nothing.
  */
+import { createHash } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../api/src/app.ts';
 import type { RouteInfo } from '../../api/src/lib/route-list.ts';
 import { ROLES } from '../../shared/schemas/auth.ts';
 import { createTestApi, type TestApi } from '../helpers/api.ts';
@@ -31,19 +33,66 @@ async function checksums(): Promise<Record<string, string>> {
 const concrete = (path: string) => path.replace(/:[A-Za-z]+/g, '1');
 
 describe('security headers (helmet)', () => {
-  it('when any API response goes out, then the hardening headers are there and X-Powered-By is not', async () => {
+  it('when any API response goes out over plain http, then the hardening headers are there, without HSTS or upgrade-insecure-requests, and no inline styles are allowed', async () => {
     const res = await request(t.app).get('/api/plant').set('Cookie', t.cookies.operator);
     const csp = String(res.headers['content-security-policy']);
     expect(csp).toMatch(/default-src 'self'/);
     expect(csp).toMatch(/frame-ancestors 'none'|frame-ancestors 'self'/);
     expect(csp).toMatch(/object-src 'none'/);
-    expect(res.headers['strict-transport-security']).toMatch(/max-age=(\d+)/);
-    expect(Number(/max-age=(\d+)/.exec(res.headers['strict-transport-security'])![1])).toBeGreaterThanOrEqual(31_536_000);
+    expect(csp).toMatch(/style-src 'self';/);
+    expect(csp).not.toMatch(/unsafe-inline/);
+    // Over http a LAN host name would otherwise be sent to https for every asset (a blank page).
+    expect(csp).not.toMatch(/upgrade-insecure-requests/);
+    expect(res.headers['strict-transport-security']).toBeUndefined();
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['x-frame-options']).toMatch(/SAMEORIGIN|DENY/);
     expect(res.headers['referrer-policy']).toBe('no-referrer');
     expect(res.headers['cross-origin-opener-policy']).toBe('same-origin');
     expect(res.headers['x-powered-by']).toBeUndefined();
+  });
+
+  it('when PUBLIC_URL is https, then HSTS of at least a year (ASVS 5.0 3.4.1) and upgrade-insecure-requests are sent', async () => {
+    const app = createApp({ auth: t.auth, ttlS: 3600, https: true });
+    const res = await request(app).get('/api/plant').set('Cookie', t.cookies.operator);
+    expect(String(res.headers['content-security-policy'])).toMatch(/upgrade-insecure-requests/);
+    expect(Number(/max-age=(\d+)/.exec(res.headers['strict-transport-security'])![1])).toBeGreaterThanOrEqual(31_536_000);
+  });
+
+  it('when the acknowledge page goes out, then its one style block is allowed by hash and nothing else inline is', async () => {
+    const res = await request(t.app).get('/ack/not-a-token');
+    const csp = String(res.headers['content-security-policy']);
+    const style = /<style>([\s\S]*?)<\/style>/.exec(res.text)![1]!;
+    expect(csp).toContain(`style-src 'sha256-${createHash('sha256').update(style).digest('base64')}'`);
+    expect(csp).toMatch(/default-src 'none'/);
+    expect(csp).not.toMatch(/unsafe-inline|script-src/);
+  });
+});
+
+describe('socket.io accepts only the app\'s own pages (ASVS 5.0 4.4.2, Origin check)', () => {
+  it('when a page from another origin connects with a valid session cookie, then it is refused; from the app\'s own origin it connects', async () => {
+    const http = await import('node:http');
+    const { io } = await import('socket.io-client');
+    const { attachRealtime } = await import('../../api/src/realtime/socket.ts');
+    const server = http.createServer(t.app);
+    const rt = attachRealtime(server, t.auth);
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
+    const { port } = server.address() as { port: number };
+    const tryConnect = (origin: string, transport: 'websocket' | 'polling') => new Promise<'connected' | string>((resolve) => {
+      const s = io(`http://127.0.0.1:${port}`, { transports: [transport], reconnection: false, extraHeaders: { origin, cookie: t.cookies.operator }, timeout: 5000 });
+      s.on('connect', () => (s.close(), resolve('connected')));
+      s.on('connect_error', (err) => (s.close(), resolve(err.message)));
+    });
+    try {
+      for (const transport of ['websocket', 'polling'] as const) {
+        expect(await tryConnect('https://evil.example', transport), transport).not.toBe('connected');
+        expect(await tryConnect(`http://127.0.0.1:${port + 1}`, transport), transport).not.toBe('connected');
+        expect(await tryConnect('null', transport), transport).not.toBe('connected');
+        expect(await tryConnect(`http://127.0.0.1:${port}`, transport), transport).toBe('connected');
+      }
+    } finally {
+      await rt.close();
+      await new Promise((r) => server.close(r));
+    }
   });
 });
 

@@ -108,6 +108,39 @@ describe('band changes', () => {
     expect(row.mv.highMv - row.mv.lowMv).toBeGreaterThan(20);
   });
 
+  it('when three steps, each under the factor of 2, add up to more than 2 within 24 h, then the third waits for a second person and shows the whole move', async () => {
+    const a3 = await tankId(t, 'A3');
+    const start = await bandOf(a3);
+    const m = as(t, 'metallurgist');
+    // Each step moves both bounds by about 1.3×; together 17/8 = 2.1× and 55/25 = 2.2× (default factor 2, window 24 h).
+    const s1 = await m.put(`/api/bands/${a3}`, { low: 10, high: 32, target: null, reason: 'Step one of the trial' });
+    const s2 = await m.put(`/api/bands/${a3}`, { low: 13, high: 42, target: null, reason: 'Step two of the trial' });
+    const s3 = await m.put(`/api/bands/${a3}`, { low: 17, high: 55, target: null, reason: 'Step three of the trial' });
+    expect([s1.body.change.status, s2.body.change.status, s3.body.change.status]).toEqual(['applied', 'applied', 'pending']);
+    expect(s2.body.change.cumulativeFrom.band).toEqual(start);
+    expect(s3.body.change).toMatchObject({ needsApproval: true, old: { low: 13, high: 42 }, cumulativeFrom: { band: start } });
+    expect(Date.parse(s3.body.change.cumulativeFrom.since)).toBe(Date.parse(s1.body.change.requestedAt));
+    expect(await bandOf(a3)).toMatchObject({ low: 13, high: 42 });
+
+    // A second person's approval starts the count afresh: a small step after it applies at once.
+    expect((await as(t, 'supervisor').post(`/api/bands/changes/${s3.body.change.id}/approve`, {})).status).toBe(200);
+    const s4 = await m.put(`/api/bands/${a3}`, { low: 18, high: 58, target: null, reason: 'Fine tuning after approval' });
+    expect(s4.body.change).toMatchObject({ status: 'applied', cumulativeFrom: null });
+  });
+
+  it('when the window is set to 0 h, then each step is judged alone again', async () => {
+    const siteId = (await as(t, 'operator').get('/api/site-settings')).body.sites[0].siteId;
+    const set = await as(t, 'admin').put('/api/site-settings', { siteId, key: 'bandApprovalWindowH', value: 0, reason: 'Trial of single-step review' });
+    expect(set.body.settings.bandApprovalWindowH).toBe(0);
+    const a4 = await tankId(t, 'A4');
+    const m = as(t, 'metallurgist');
+    const steps = [[10, 32], [13, 42], [17, 55]];
+    const statuses = [];
+    for (const [low, high] of steps) statuses.push((await m.put(`/api/bands/${a4}`, { low, high, target: null, reason: 'Stepwise' })).body.change.status);
+    expect(statuses).toEqual(['applied', 'applied', 'applied']);
+    await as(t, 'admin').put('/api/site-settings', { siteId, key: 'bandApprovalWindowH', value: 24, reason: 'Back to the site default' });
+  });
+
   it('when an admin raises the approval factor to 5, then a threefold change applies at once', async () => {
     const siteId = (await as(t, 'operator').get('/api/site-settings')).body.sites[0].siteId;
     expect((await as(t, 'metallurgist').put('/api/site-settings', { siteId, key: 'bandApprovalFactor', value: 5, reason: 'x' })).status).toBe(403);

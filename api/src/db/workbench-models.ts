@@ -22,6 +22,9 @@ export class BandChangeRow extends Model<InferAttributes<BandChangeRow>, InferCr
   declare requestedAt: Date;
   declare needsApproval: boolean;
   declare copiedFromTankId: number | null;
+  /** The band the change was judged against when earlier steps in the window add up (else null). */
+  declare baseLow: CreationOptional<number | null>; declare baseHigh: CreationOptional<number | null>;
+  declare baseTarget: CreationOptional<number | null>; declare baseSince: CreationOptional<Date | null>;
 }
 
 export class BandDecisionRow extends Model<InferAttributes<BandDecisionRow>, InferCreationAttributes<BandDecisionRow>> {
@@ -128,6 +131,7 @@ export function initWorkbenchModels(sequelize: Sequelize): void {
   BandChangeRow.init({
     id: id(), tankId: int(), oldLow: dbl(), oldHigh: dbl(), oldTarget: dbl(true), newLow: dbl(), newHigh: dbl(), newTarget: dbl(true),
     reason: text(500, false), requestedBy: int(), requestedAt: date(), needsApproval: bool(), copiedFromTankId: int(true),
+    baseLow: dbl(true), baseHigh: dbl(true), baseTarget: dbl(true), baseSince: date(true),
   }, opts(sequelize, 'band_changes'));
   BandDecisionRow.init({
     id: id(), changeId: int(), decision: { type: DataTypes.ENUM('approved', 'rejected', 'withdrawn'), allowNull: false },

@@ -1,3 +1,4 @@
+import { originAllowed } from './origin.ts';
 import type { Server as HttpServer } from 'node:http';
 import { Server, type ServerOptions } from 'socket.io';
 import { socketAuthSchema } from '../../../shared/schemas/socket-events.ts';
@@ -27,8 +28,15 @@ function cookieValue(header: string | undefined, name: string): string | undefin
 export type ClusterRealtime = { serverOptions: Partial<ServerOptions>; alarmLease: Lease };
 
 /** `cluster`: several API nodes (api/src/cluster/socket-cluster.ts, README "Scaling out"). */
-export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus, cluster?: ClusterRealtime) {
-  const io: RealtimeServer = new Server(httpServer, { serveClient: false, cors: { origin: false }, ...cluster?.serverOptions });
+export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus, cluster?: ClusterRealtime, publicUrl?: string) {
+  const io: RealtimeServer = new Server(httpServer, {
+    serveClient: false, cors: { origin: false }, ...cluster?.serverOptions,
+    allowRequest: (req, cb) => {
+      const ok = originAllowed(req.headers, publicUrl);
+      if (!ok) logger.warn({ ip: req.socket.remoteAddress, origin: req.headers.origin }, 'socket refused: page from another origin');
+      cb(ok ? null : 'origin not allowed', ok);
+    },
+  });
   // Every node gets every live value from the broker itself: each serves its own sockets, else a client would get one copy per node.
   const live = cluster ? io.local : io;
   const feed = new LiveFeed();

@@ -4,9 +4,10 @@ import { requireRole } from '../../middleware/auth.ts';
 import { body } from '../../middleware/validate.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { simCommandSchema } from '../../../../shared/schemas/simulator.ts';
+import { supervisedParts } from './supervisor-status.ts';
 
 /** Admin-only: simulator faults for demos and training, ingest health. */
-export function adminRouter(bus?: Bus): Router {
+export function adminRouter(bus?: Bus, dataDir = '.data'): Router {
   const r = Router();
   r.use(requireRole('admin'));
   const needBus = () => {
@@ -21,9 +22,10 @@ export function adminRouter(bus?: Bus): Router {
     await needBus().simCommand(cmd);
     res.status(202).json({ accepted: cmd });
   });
-  r.get('/ingest-health', (_req, res) => {
+  r.get('/ingest-health', async (_req, res) => {
     // null until the worker (the embedded broker) has published its first snapshot.
-    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null });
+    const parts = await supervisedParts(dataDir);
+    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null, parts });
   });
   return r;
 }

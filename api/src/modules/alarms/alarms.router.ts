@@ -1,3 +1,4 @@
+import { CSV_TYPE } from '../../lib/csv.ts';
 import { Router } from 'express';
 import { ACK_ROLES, SERVICE_ROLES, SHELVE_GATE } from '../../../../shared/alarms/roles.ts';
 import {
@@ -30,7 +31,7 @@ export function alarmsRouter(): Router {
   });
   r.get('/history/export', async (req, res) => {
     const csv = await svc.historyCsv(queryParams(historyQuerySchema, req));
-    res.type('text/csv').attachment(`alarm-history-${new Date().toISOString().slice(0, 10)}.csv`).send(csv);
+    res.type(CSV_TYPE).attachment(`alarm-history-${new Date().toISOString().slice(0, 10)}.csv`).send(csv);
   });
   r.get('/figures', async (req, res) => {
     const q = queryParams(figuresQuerySchema, req);

@@ -1,4 +1,4 @@
-import { stringify } from 'csv-stringify/sync';
+import { csvText } from '../../lib/csv.ts';
 import { alarmFigures } from '../../../../shared/alarms/figures.ts';
 import { MAX_SHELVE_MIN } from '../../../../shared/alarms/states.ts';
 import { ALARM_TARGETS } from '../../../../shared/alarms/targets.ts';
@@ -54,7 +54,7 @@ export const alarmsService = {
   async historyCsv(q: HistoryQuery): Promise<string> {
     const { alarms } = await repo.history({ ...q, limit: 5000, offset: 0 });
     const ackS = (a: AlarmView) => (a.ackedAt && a.activatedAt ? Math.round((Date.parse(a.ackedAt) - Date.parse(a.activatedAt)) / 1000) : '');
-    return stringify([
+    return csvText([
       ['id', 'site', 'circuit', 'tank', 'alarm', 'priority', 'opened_at_utc', 'activated_at_utc', 'acknowledged_at_utc', 'acknowledged_by', 'seconds_to_acknowledge', 'closed_at_utc', 'state', 'value_at_activation', 'limit', 'unit'],
       ...alarms.map((a) => [a.id, a.siteTag, a.circuitTag, a.tankTag, a.label, `P${a.priority}`, a.openedAt, a.activatedAt ?? '', a.ackedAt ?? '', a.ackedBy ?? '', ackS(a), a.closedAt ?? '', a.state, a.firstValue ?? '', a.limitValue ?? '', a.unit]),
     ]);

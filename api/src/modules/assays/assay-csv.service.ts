@@ -1,4 +1,4 @@
-import { stringify } from 'csv-stringify/sync';
+import { csvText } from '../../lib/csv.ts';
 import { UniqueConstraintError } from 'sequelize';
 import {
   ASSAY_CSV_MAX_ROWS, ASSAY_CSV_OPTIONAL, ASSAY_CSV_REQUIRED, type CsvCommitResult, type CsvPreview, type CsvRowError,
@@ -80,7 +80,7 @@ export const assayCsvService = {
   async template(): Promise<string> {
     const tanks = [...(await repo.tankRefs()).values()].sort((a, b) => a.id - b.id);
     const tag = tanks[0]?.tag ?? 'A1';
-    return stringify([
+    return csvText([
       [...ASSAY_CSV_REQUIRED, ...ASSAY_CSV_OPTIONAL],
       [tag, '2026-12-01 08:30', '1.20', '14.8', 'g/L', 'dichromate titration', 'initials', 'LAB-0001', 'example row: delete before upload'],
       [tag, '2026-12-01T14:30:00+08:00', '1150', '14600', 'mg/L', 'ICP (total Fe)', 'initials', 'LAB-0002', 'times without an offset are site time'],

@@ -1,3 +1,4 @@
+import { CSV_TYPE } from '../../lib/csv.ts';
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { ASSAY_CSV_MAX_BYTES, assayEntrySchema, assayRetractSchema, assaysQuerySchema } from '../../../../shared/schemas/assays.ts';
@@ -40,7 +41,7 @@ export function assaysRouter(): Router {
     res.json(await assaysService.list(queryParams(assaysQuerySchema, req)));
   });
   r.get('/template.csv', requireSignIn, async (_req, res) => {
-    res.type('text/csv; charset=utf-8').attachment('ferrisight-assays-template.csv').send(await assayCsvService.template());
+    res.type(CSV_TYPE).attachment('ferrisight-assays-template.csv').send(await assayCsvService.template());
   });
   r.post('/', write, async (req, res) => {
     res.status(201).json({ assay: await assaysService.create(body(assayEntrySchema, req), req.user!.id) });

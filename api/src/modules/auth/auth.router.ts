@@ -3,23 +3,18 @@ import { changePasswordSchema, signInSchema } from '../../../../shared/schemas/a
 import { requireSignIn } from '../../middleware/auth.ts';
 import { body } from '../../middleware/validate.ts';
 import type { AuthService } from './auth.service.ts';
+import { signInLimits, type SignInLimitSettings } from './sign-in-limits.ts';
 import { SESSION_COOKIE } from './tokens.ts';
 
-export function authRouter(auth: AuthService, opts: { secureCookie: boolean; ttlS: number }): Router {
+export function authRouter(auth: AuthService, opts: { secureCookie: boolean; ttlS: number; limits?: SignInLimitSettings }): Router {
   const r = Router();
   const cookieOptions = { httpOnly: true, sameSite: 'strict' as const, secure: opts.secureCookie, path: '/' };
 
-  r.post('/sign-in', async (req, res) => {
+  r.post('/sign-in', ...signInLimits(opts.limits), async (req, res) => {
     const input = body(signInSchema, req);
-    try {
-      const { user, token } = await auth.signIn(input, req.ip ?? 'unknown');
-      res.cookie(SESSION_COOKIE, token, { ...cookieOptions, maxAge: opts.ttlS * 1000 });
-      res.json({ user });
-    } catch (err) {
-      const wait = (err as { extra?: { retryAfterS?: number } }).extra?.retryAfterS;
-      if (wait) res.set('Retry-After', String(wait));
-      throw err;
-    }
+    const { user, token } = await auth.signIn(input, req.ip ?? 'unknown');
+    res.cookie(SESSION_COOKIE, token, { ...cookieOptions, maxAge: opts.ttlS * 1000 });
+    res.json({ user });
   });
 
   r.post('/sign-out', requireSignIn, async (req, res) => {

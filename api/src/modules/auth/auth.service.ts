@@ -3,7 +3,6 @@ import type { ChangePasswordInput, SessionUser, SignInInput } from '../../../../
 import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
 import { usersRepository } from '../users/users.repository.ts';
-import { LoginThrottle } from './login-throttle.ts';
 import { issueToken, verifyToken } from './tokens.ts';
 
 /** bcrypt cost 12: ≈ 200 ms here, inside ASVS's 50–250 ms target for cost ≥ 10. */
@@ -13,19 +12,16 @@ const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', BCRYPT_COST);
 
 export type AuthSettings = { jwtSecret: string; ttlS: number };
 
-export function createAuthService(settings: AuthSettings, throttle = new LoginThrottle()) {
+/** Sign-in limits are middleware in front of the route (sign-in-limits.ts), counted across nodes. */
+export function createAuthService(settings: AuthSettings) {
   return {
     async signIn(input: SignInInput, ip: string): Promise<{ user: SessionUser; token: string }> {
-      const wait = throttle.retryAfterS(input.email, ip);
-      if (wait > 0) throw new AppError(429, 'too-many-attempts', `Too many failed sign-ins; try again in ${Math.ceil(wait / 60)} min`, { retryAfterS: wait });
       const row = await usersRepository.findByEmailWithHash(input.email);
       const ok = await bcrypt.compare(input.password, row?.passwordHash ?? DUMMY_HASH);
       if (!row || !ok || row.disabled) {
-        throttle.fail(input.email, ip);
         logger.warn({ email: input.email, ip, disabled: row?.disabled ?? false }, 'sign-in refused');
         throw AppError.unauthorized(row?.disabled && ok ? 'This account is disabled' : 'E-mail or password is wrong');
       }
-      throttle.succeed(input.email);
       const user: SessionUser = { id: row.id, email: row.email, name: row.name, role: row.role };
       return { user, token: issueToken(user, settings.jwtSecret, settings.ttlS) };
     },

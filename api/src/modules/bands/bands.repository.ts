@@ -7,6 +7,7 @@ type Row = {
   id: number; tank_id: number; tank_tag: string; old_low: number; old_high: number; old_target: number | null;
   new_low: number; new_high: number; new_target: number | null; reason: string; requested_by: number; requester: string;
   requested_at: Date; needs_approval: number; copied_from_tank_id: number | null;
+  base_low: number | null; base_high: number | null; base_target: number | null; base_since: Date | null;
   decision: 'approved' | 'rejected' | 'withdrawn' | null; decided_by: number | null; decider: string | null; decided_at: Date | null; note: string | null;
 };
 
@@ -26,6 +27,9 @@ function toChange(r: Row): BandChange {
     new: { low: r.new_low, high: r.new_high, target: r.new_target },
     reason: r.reason, requestedBy: { id: r.requested_by, name: r.requester }, requestedAt: r.requested_at.toISOString(),
     needsApproval: Boolean(r.needs_approval), copiedFromTankId: r.copied_from_tank_id, status,
+    cumulativeFrom: r.base_low !== null && r.base_high !== null && r.base_since
+      ? { band: { low: r.base_low, high: r.base_high, target: r.base_target }, since: r.base_since.toISOString() }
+      : null,
     decision: r.decision && r.decided_by !== null && r.decided_at
       ? { by: { id: r.decided_by, name: r.decider ?? '' }, at: r.decided_at.toISOString(), note: r.note }
       : null,
@@ -67,13 +71,34 @@ export const bandsRepository = {
     return rows[0]?.id ?? null;
   },
 
+  /**
+   * The band in force at `since` for the steps that add up: the old band of the first change
+   * that took effect at once after `since` and after the tank's last approved change (a second
+   * person's approval starts the count afresh); null when no such change exists.
+   */
+  async bandAtWindowStart(tankId: number, since: Date, transaction: Transaction): Promise<{ band: BandValues; since: Date } | null> {
+    const rows = await Tank.sequelize!.query<{ old_low: number; old_high: number; old_target: number | null; requested_at: Date }>(
+      `SELECT b.old_low, b.old_high, b.old_target, b.requested_at FROM band_changes b
+        WHERE b.tank_id = :tankId AND b.needs_approval = 0 AND b.requested_at >= :since
+          AND b.requested_at > COALESCE((SELECT MAX(d.decided_at) FROM band_change_decisions d JOIN band_changes a ON a.id = d.change_id
+                                          WHERE a.tank_id = :tankId AND d.decision = 'approved'), '1000-01-01')
+        ORDER BY b.requested_at, b.id LIMIT 1`,
+      { replacements: { tankId, since }, type: QueryTypes.SELECT, transaction },
+    );
+    const r = rows[0];
+    return r ? { band: { low: r.old_low, high: r.old_high, target: r.old_target }, since: r.requested_at } : null;
+  },
+
   async insert(input: {
     tankId: number; old: BandValues; next: BandValues; reason: string; userId: number; needsApproval: boolean; copiedFromTankId?: number;
+    base?: { band: BandValues; since: Date } | null;
   }, transaction: Transaction): Promise<number> {
     const row = await BandChangeRow.create({
       tankId: input.tankId, oldLow: input.old.low, oldHigh: input.old.high, oldTarget: input.old.target,
       newLow: input.next.low, newHigh: input.next.high, newTarget: input.next.target, reason: input.reason,
       requestedBy: input.userId, requestedAt: new Date(), needsApproval: input.needsApproval, copiedFromTankId: input.copiedFromTankId ?? null,
+      baseLow: input.base?.band.low ?? null, baseHigh: input.base?.band.high ?? null, baseTarget: input.base?.band.target ?? null,
+      baseSince: input.base?.since ?? null,
     }, { transaction });
     return row.id;
   },

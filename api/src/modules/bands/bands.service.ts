@@ -31,9 +31,11 @@ async function requestOne(
   const pending = await repo.pendingIdForTank(tankId, transaction);
   if (pending) throw AppError.conflict(`Tank ${tankId} has a band change awaiting approval (#${pending}): decide or withdraw it first`);
   if (sameBand(tank.band, next)) return null;
-  const { bandApprovalFactor } = await siteSettingsRepository.forTank(tankId, transaction);
-  const needsApproval = isLargeBandChange(tank.band, next, bandApprovalFactor);
-  const id = await repo.insert({ tankId, old: tank.band, next, reason, userId: actor.id, needsApproval, copiedFromTankId }, transaction);
+  const { bandApprovalFactor, bandApprovalWindowH } = await siteSettingsRepository.forTank(tankId, transaction);
+  // Steps add up: small moves in a row are judged as the one move they make together.
+  const base = await repo.bandAtWindowStart(tankId, new Date(Date.now() - bandApprovalWindowH * 3_600_000), transaction);
+  const needsApproval = isLargeBandChange(tank.band, next, bandApprovalFactor) || (base !== null && isLargeBandChange(base.band, next, bandApprovalFactor));
+  const id = await repo.insert({ tankId, old: tank.band, next, reason, userId: actor.id, needsApproval, copiedFromTankId, base }, transaction);
   if (!needsApproval) await repo.setTankBand(tankId, next, transaction);
   await writeAudit({
     userId: actor.id, action: needsApproval ? 'band.request' : 'band.change', entity: 'tank', entityId: tankId,

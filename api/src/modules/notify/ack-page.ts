@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { AckPage } from './ack.service.ts';
 
 /**
@@ -40,12 +41,7 @@ function body(p: AckPage | null, action: string): { title: string; html: string 
   }
 }
 
-export function renderAckPage(p: AckPage | null, action: string): { status: number; html: string } {
-  const { title, html } = body(p, action);
-  return {
-    status: STATUS[p?.outcome ?? 'unconfigured'],
-    html: `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width,initial-scale=1">
-<meta name="robots" content="noindex"><title>${esc(title)} · Ferrisight</title><style>
+const ACK_PAGE_CSS = `
 body{margin:0;font-family:Barlow,system-ui,sans-serif;background:#171c21;color:#eef2f5}
 a{color:#7cc8d8}main{max-width:34rem;margin:3rem auto;padding:1.5rem;background:#232a31;border:1px solid #444e59;border-radius:.5rem}
 h1{font-size:1.4rem;margin:0 0 1rem}label{display:block;margin-top:1rem}
@@ -53,6 +49,22 @@ textarea{width:100%;box-sizing:border-box;background:#171c21;color:#eef2f5;borde
 button{margin-top:1rem;padding:.6rem 1.2rem;font:inherit;font-weight:600;background:#eef2f5;color:#12171c;border:0;border-radius:.25rem;cursor:pointer}
 .pill{display:inline-block;padding:0 .5rem;border-radius:1rem;font-weight:700}
 .p1{background:#d8431f;color:#fff;border-left:.35rem solid #fff}.p2{background:#e0a21a;color:#12171c;border-left:.15rem solid #12171c}.p3{border:2px solid #a58bf0;color:#d9ccff}
-</style></head><body><main><h1>${esc(title)}</h1>${html}<p><small>Ferrisight · advisory; follow site procedures.</small></p></main></body></html>`,
+`;
+
+/**
+ * The page's own policy: no scripts at all, and only this one style block, allowed by its hash
+ * (CSP Level 3 hash-source), so the app-wide "no inline styles" rule still holds everywhere else.
+ */
+export const ACK_PAGE_CSP = [
+  "default-src 'none'", `style-src 'sha256-${createHash('sha256').update(ACK_PAGE_CSS).digest('base64')}'`,
+  "form-action 'self'", "base-uri 'none'", "frame-ancestors 'none'",
+].join('; ');
+
+export function renderAckPage(p: AckPage | null, action: string): { status: number; html: string } {
+  const { title, html } = body(p, action);
+  return {
+    status: STATUS[p?.outcome ?? 'unconfigured'],
+    html: `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width,initial-scale=1">
+<meta name="robots" content="noindex"><title>${esc(title)} · Ferrisight</title><style>${ACK_PAGE_CSS}</style></head><body><main><h1>${esc(title)}</h1>${html}<p><small>Ferrisight · advisory; follow site procedures.</small></p></main></body></html>`,
   };
 }

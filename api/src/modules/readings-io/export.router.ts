@@ -1,3 +1,4 @@
+import { CSV_TYPE } from '../../lib/csv.ts';
 import { Router } from 'express';
 import { exportQuerySchema } from '../../../../shared/schemas/export.ts';
 import { logger } from '../../lib/logger.ts';
@@ -11,7 +12,7 @@ export function exportRouter(): Router {
   r.get('/export', requireSignIn, async (req, res) => {
     const q = queryParams(exportQuerySchema, req);
     const plan = await exportService.plan(q);
-    res.status(200).attachment(plan.fileName).type('text/csv; charset=utf-8');
+    res.status(200).attachment(plan.fileName).type(CSV_TYPE);
     res.setHeader('Cache-Control', 'no-store');
     try {
       const complete = await exportService.stream(q, plan, res);

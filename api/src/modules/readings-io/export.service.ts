@@ -1,6 +1,6 @@
 import { Transform, type Writable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
-import { stringify } from 'csv-stringify';
+import { csvStream } from '../../lib/csv.ts';
 import { RAW_EXPORT_COLUMNS, ROLLUP_EXPORT_COLUMNS, type ExportQuery } from '../../../../shared/schemas/export.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { logger } from '../../lib/logger.ts';
@@ -41,7 +41,7 @@ export const exportService = {
   async stream(q: ExportQuery, plan: ExportPlan, out: Writable): Promise<boolean> {
     const { conn, rows } = await exportRepository.open(q.source, plan.probes.map((p) => p.probeId), Date.parse(q.from), Date.parse(q.to));
     const columns = q.source === 'raw' ? [...RAW_EXPORT_COLUMNS] : [...ROLLUP_EXPORT_COLUMNS];
-    const csv = stringify({ header: true, columns, escape_formulas: true, record_delimiter: 'windows' });
+    const csv = csvStream(columns);
     try {
       await pipeline(rows, labeller(new Map(plan.probes.map((p) => [p.probeId, p]))), csv, out);
       await conn.release();

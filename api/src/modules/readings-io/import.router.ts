@@ -3,7 +3,7 @@ import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { randomBytes } from 'node:crypto';
 import { Router, type RequestHandler } from 'express';
-import { stringify } from 'csv-stringify';
+import { CSV_TYPE, csvStream } from '../../lib/csv.ts';
 import multer from 'multer';
 import { IMPORT_MAX_BYTES, importIdParamSchema } from '../../../../shared/schemas/import.ts';
 import { AppError } from '../../lib/app-error.ts';
@@ -54,9 +54,9 @@ export function importRouter(o: ImportRouterOptions): Router {
   r.get('/imports/:id/rejections', allowed, async (req, res) => {
     const { id } = params(importIdParamSchema, req);
     const { conn, rows } = await importService.rejections(id);
-    res.status(200).attachment(`ferrisight-import-${id}-rejected-rows.csv`).type('text/csv; charset=utf-8');
+    res.status(200).attachment(`ferrisight-import-${id}-rejected-rows.csv`).type(CSV_TYPE);
     try {
-      await pipeline(rows, stringify({ header: true, columns: ['line', 'reason', 'content'], escape_formulas: true, record_delimiter: 'windows' }), res);
+      await pipeline(rows, csvStream(['line', 'reason', 'content']), res);
       await conn.release();
     } catch {
       conn.destroy();

@@ -1,10 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { BrokerHealth, IngestHealth } from '@shared/schemas/ingest-health';
+import type { BrokerHealth, IngestHealth, PartState } from '@shared/schemas/ingest-health';
 import { adminKeys } from './admin-keys';
 
-export type { BrokerHealth, IngestHealth };
-export type IngestHealthResponse = { health: IngestHealth | null; broker: BrokerHealth | null };
+export type { BrokerHealth, IngestHealth, PartState };
+/** parts: null when no plant supervisor runs the API (a site's own service manager). */
+export type IngestHealthResponse = { health: IngestHealth | null; broker: BrokerHealth | null; parts: PartState[] | null };
 
 export function getIngestHealth(signal?: AbortSignal): Promise<IngestHealthResponse> {
   return api.get<IngestHealthResponse>('/api/admin/ingest-health', { signal });

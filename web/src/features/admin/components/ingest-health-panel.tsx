@@ -3,6 +3,7 @@ import { Quantity } from '../../../components/ui/quantity';
 import { useNow } from '../../../lib/clock';
 import { formatAge, formatDateTime } from '../../../lib/format';
 import { useIngestHealth, type IngestHealth } from '../api/get-ingest-health';
+import { PartsList } from './parts-list';
 
 const count = (n: number) => n.toLocaleString('en-GB');
 const ms = (v: number | null) => (v == null ? '—' : v < 10 ? v.toFixed(1) : String(Math.round(v)));
@@ -64,6 +65,7 @@ export function IngestHealthPanel({ timeZone }: { timeZone: string }) {
           )}
         </>
       )}
+      {health.data?.parts && health.data.parts.length > 0 && <PartsList parts={health.data.parts} now={now} />}
     </Panel>
   );
 }

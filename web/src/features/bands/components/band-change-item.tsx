@@ -39,6 +39,14 @@ export function BandChangeItem({ change, user, timeZone, onChanged }: { change: 
           {STATUS[change.status]}
         </span>
       </div>
+      {change.cumulativeFrom && (
+        <p className="text-sm" data-testid="band-cumulative">
+          With the changes since {when(change.cumulativeFrom.since)}: <span className="tabular-nums">{bandText(change.cumulativeFrom.band)}</span>{' '}
+          <span aria-hidden="true">→</span>
+          <span className="sr-only">to</span> <strong className="tabular-nums">{bandText(change.new)}</strong>
+          {change.needsApproval && ' (judged as one change)'}
+        </p>
+      )}
       <p className="text-sm text-ink-muted">
         “{change.reason}” — {change.requestedBy.name}, {when(change.requestedAt)}
         {change.copiedFromTankId != null && ' · copied within the circuit'}

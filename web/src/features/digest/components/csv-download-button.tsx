@@ -1,4 +1,4 @@
-import { toCsv, type CsvCell } from '@shared/csv/csv-text';
+import { toCsv, type CsvCell } from '../../../lib/csv';
 import { Button } from '../../../components/ui/button';
 
 /**

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { CsvCell } from '@shared/csv/csv-text';
+import type { CsvCell } from '../../../lib/csv';
 import { CsvDownloadButton } from './csv-download-button';
 
 export type Column<T> = {
