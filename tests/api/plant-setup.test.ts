@@ -6,7 +6,6 @@ import { AuditEntry, Calibration, Device, Probe, Tank, initModels } from '../../
 import { createIngestPool, inTransaction, type Pool } from '../../api/src/db/pool.ts';
 import { createSequelize } from '../../api/src/db/sequelize.ts';
 import { createAuthService } from '../../api/src/modules/auth/auth.service.ts';
-import { LoginThrottle } from '../../api/src/modules/auth/login-throttle.ts';
 import { firstRunRepository } from '../../api/src/modules/first-run/first-run.repository.ts';
 import { insertDeadLetters } from '../../api/src/modules/readings/dead-letters.repository.ts';
 import { deleteExpiredRefusals } from '../../api/src/modules/readings/retention.repository.ts';
@@ -171,7 +170,7 @@ describe('first run of a real site', () => {
     const sequelize = createSequelize(db.databaseUrl, 2);
     initModels(sequelize);
     try {
-      const app = createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }, new LoginThrottle(1000, 1000)), ttlS: 3600 });
+      const app = createApp({ auth: createAuthService({ jwtSecret: TEST_SECRET, ttlS: 3600 }), ttlS: 3600 });
       const post = (body: object) => request(app).post('/api/first-run').set('X-Ferrisight-Csrf', '1').send(body);
       expect((await request(app).get('/api/first-run')).body).toEqual({ needed: true });
       const token = (await firstRunRepository.issueToken(sequelize))!;
