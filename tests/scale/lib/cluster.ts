@@ -30,6 +30,8 @@ export type ClusterOptions = {
 export type Cluster = {
   mqttPort: number;
   apiPorts: number[];
+  /** Process ids of the API nodes, in apiPorts order (CPU and memory figures). */
+  apiPids: number[];
   redisUrl?: string;
   workers: (Child | null)[];
   notifiers: (Child | null)[];
@@ -60,7 +62,7 @@ export async function startCluster(o: ClusterOptions): Promise<Cluster> {
   }
 
   const cluster: Cluster = {
-    mqttPort, apiPorts, redisUrl: redis?.url, workers: [], notifiers: [],
+    mqttPort, apiPorts, apiPids: apis.map((a) => a.pid), redisUrl: redis?.url, workers: [], notifiers: [],
     startWorker(i) {
       const slice = o.workers > 1 ? { INGEST_SLICE: `${i + 1}/${o.workers}`, INGEST_SLICE_BY: o.sliceBy ?? 'site' } : {};
       const child = spawnPart('ingest/worker.ts', { ...common, INGEST_CLIENT_ID: 'ferrisight-ingest-scale', FERRISIGHT_PROC: `ingest${i + 1}`, ...slice });
