@@ -15,6 +15,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import mqtt, { type MqttClient } from 'mqtt';
 import { createIngestPool } from '../api/src/db/pool.ts';
+import { latestMessageSchema, latestTopic, parseInternal } from '../shared/schemas/internal-topics.ts';
 import { batchTopic } from '../shared/schemas/readings.ts';
 import { JWT_SECRET, startCluster } from '../tests/scale/lib/cluster.ts';
 import { rssMiB, SERVICE_PASSWORD } from '../tests/reliability/lib/procs.ts';
@@ -80,7 +81,7 @@ async function startGateways(mqttPort: number, sites: FanoutSite[]): Promise<{ s
   };
 }
 
-type Row = { nodes: number; clients: number; p50: number; p99: number; perClientPerS: number; cpuPer100: number; rssPer100: number; pausedP99?: number };
+type Row = { nodes: number; clients: number; p50: number; p99: number; perClientPerS: number; oneSitePerS: number; allSitesPerS: number; cpuPer100: number; rssPer100: number; pausedP99?: number };
 
 /**
  * When each reading was announced as stored: the worker publishes every committed reading on the
@@ -89,9 +90,9 @@ type Row = { nodes: number; clients: number; p50: number; p99: number; perClient
 async function watchCommits(mqttPort: number, siteTags: string[]): Promise<{ committedAt: Map<string, number>; stop(): Promise<void> }> {
   const committedAt = new Map<string, number>();
   const sub = await mqtt.connectAsync(`mqtt://127.0.0.1:${mqttPort}`, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: `fanout-commits-${Date.now()}`, protocolVersion: 4, reconnectPeriod: 0 });
-  sub.on('message', (_topic, buf) => {
+  sub.on('message', (topic, buf) => {
     const at = Date.now();
-    for (const r of parseLatestMessage(buf)) committedAt.set(`${r.probeTag}|${r.ts}`, at);
+    for (const r of parseInternal(latestMessageSchema, topic, buf).readings) committedAt.set(`${r.probeTag}|${r.ts}`, at);
   });
   for (const tag of siteTags) await sub.subscribeAsync(latestTopic(tag), { qos: 0 });
   const prune = setInterval(() => {
@@ -116,9 +117,14 @@ async function measure(screens: Screen[], apiPids: number[], windowS: number): P
   const cpuPct = (100 * apiPids.reduce((a, pid, i) => a + cpuSeconds(pid) - cpu0[i]!, 0)) / elapsed;
   const lat = screens.flatMap((s) => s.latencies);
   const updates = screens.reduce((a, s) => a + s.updates, 0);
+  const rate = (pick: (s: Screen) => boolean) => {
+    const some = screens.filter(pick);
+    return some.length ? some.reduce((a, s) => a + s.updates, 0) / some.length / elapsed : NaN;
+  };
   return {
     p50: quantile(lat, 0.5), p99: quantile(lat, 0.99),
     perClientPerS: updates / screens.length / elapsed,
+    oneSitePerS: rate((s) => s.sites === 1), allSitesPerS: rate((s) => s.sites > 1),
     cpuPct, cpuPer100: cpuPct / (screens.length / 100),
   };
 }
@@ -151,7 +157,7 @@ try {
         paused.close();
         for (const s of screens) s.close();
         rows.push(row);
-        out(`${nodes} API node(s), ${n} clients: stored → client p50 ${fmt(row.p50)} ms, p99 ${fmt(row.p99)} ms; ${row.perClientPerS.toFixed(0)} tank updates/client/s; API CPU ${fmt(m.cpuPct)} % (${row.cpuPer100.toFixed(1)} % per 100 clients), RSS +${row.rssPer100.toFixed(1)} MiB per 100 clients; p99 with ${PAUSED} paused clients ${fmt(row.pausedP99)} ms`);
+        out(`${nodes} API node(s), ${n} clients: stored → client p50 ${fmt(row.p50)} ms, p99 ${fmt(row.p99)} ms; ${row.perClientPerS.toFixed(0)} tank updates/client/s (one-site screens ${row.oneSitePerS.toFixed(0)}, all-site screens ${row.allSitesPerS.toFixed(0)}); API CPU ${fmt(m.cpuPct)} % (${row.cpuPer100.toFixed(1)} % per 100 clients), RSS +${row.rssPer100.toFixed(1)} MiB per 100 clients; p99 with ${PAUSED} paused clients ${fmt(row.pausedP99)} ms`);
         await sleep(2_000);
       }
     } finally {
@@ -170,9 +176,9 @@ const passes = (nodes: number) => {
   return over.length ? `p99 passes 1 s at ${Math.min(...over)} clients` : `p99 under 1 s up to ${Math.max(...rows.filter((r) => r.nodes === nodes).map((r) => r.clients))} clients (the most measured)`;
 };
 out('');
-out('| API nodes | clients | stored → client p50 | p99 | p99 with paused clients | tank updates per client per s | API CPU per 100 clients | API RSS per 100 clients |');
+out('| API nodes | clients | stored → client p50 | p99 | p99 with paused clients | tank updates per client per s (one-site / all-site screens) | API CPU per 100 clients | API RSS per 100 clients |');
 out('|---|---|---|---|---|---|---|---|');
-for (const r of rows) out(`| ${r.nodes} | ${r.clients} | ${fmt(r.p50)} ms | ${fmt(r.p99)} ms | ${fmt(r.pausedP99 ?? NaN)} ms | ${r.perClientPerS.toFixed(0)} | ${r.cpuPer100.toFixed(1)} % of a core | ${r.rssPer100.toFixed(1)} MiB |`);
+for (const r of rows) out(`| ${r.nodes} | ${r.clients} | ${fmt(r.p50)} ms | ${fmt(r.p99)} ms | ${fmt(r.pausedP99 ?? NaN)} ms | ${r.perClientPerS.toFixed(0)} (${r.oneSitePerS.toFixed(0)} / ${r.allSitesPerS.toFixed(0)}) | ${r.cpuPer100.toFixed(1)} % of a core | ${r.rssPer100.toFixed(1)} MiB |`);
 for (const nodes of NODES) out(`- ${nodes} API node(s): ${passes(nodes)}`);
 writeBenchSection(ROOT, 'fanout', lines);
 process.exit(0);

@@ -10,7 +10,7 @@ import { io, type Socket } from 'socket.io-client';
 import type { Role } from '../../shared/schemas/auth.ts';
 import type { ClientToServerEvents, ServerToClientEvents } from '../../shared/schemas/socket-events.ts';
 
-export type Screen = { socket: Socket<ServerToClientEvents, ClientToServerEvents>; latencies: number[]; updates: number; reset(): void; close(): void };
+export type Screen = { socket: Socket<ServerToClientEvents, ClientToServerEvents>; sites: number; latencies: number[]; updates: number; reset(): void; close(): void };
 
 /** The sites screen i watches: every fifth screen is a site overview (all sites), the rest one site's Floor. */
 export function viewOf(i: number, siteTags: string[]): string[] {
@@ -26,8 +26,9 @@ export async function connectScreens(ports: number[], n: number, tokens: { role:
   const ready: Promise<void>[] = [];
   for (let i = 0; i < n; i += 1) {
     const socket: Socket<ServerToClientEvents, ClientToServerEvents> = io(`http://127.0.0.1:${ports[i % ports.length]}`, { transports: ['websocket'], auth: { token: tokens[i % tokens.length]!.token }, timeout: 20_000 });
+    const view = viewOf(i, siteTags);
     const screen: Screen = {
-      socket, latencies: [], updates: 0,
+      socket, sites: view.length, latencies: [], updates: 0,
       reset() {
         this.latencies = [];
         this.updates = 0;
@@ -44,7 +45,7 @@ export async function connectScreens(ports: number[], n: number, tokens: { role:
     });
     ready.push(new Promise((resolve, reject) => {
       socket.once('connect', () => {
-        socket.emit('live:watch', { sites: viewOf(i, siteTags) });
+        socket.emit('live:watch', { sites: view });
         resolve();
       });
       socket.once('connect_error', (err) => reject(new Error(`screen ${i}: ${err.message}`)));

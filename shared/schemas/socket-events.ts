@@ -32,6 +32,15 @@ export const socketAuthSchema = z.object({
 }).catch({});
 export type SocketAuth = z.infer<typeof socketAuthSchema>;
 
+/**
+ * live:watch: the sites whose live values a screen shows ('all' for every site). A socket starts
+ * watching every site; a screen that shows fewer says so and receives only those.
+ */
+export const liveWatchSchema = z.object({
+  sites: z.union([z.literal('all'), z.array(z.string().min(1).max(40)).max(1000)]),
+});
+export type LiveWatch = z.infer<typeof liveWatchSchema>;
+
 export interface ServerToClientEvents {
   'tank:latest': (readings: TankLive[]) => void;
   'probe:freshness': (f: ProbeFreshness) => void;
@@ -44,6 +53,7 @@ export interface ServerToClientEvents {
 
 export interface ClientToServerEvents {
   'alarm:since': (afterId: number) => void;
+  'live:watch': (watch: LiveWatch) => void;
 }
 
 export type ServerEventName = keyof ServerToClientEvents;

@@ -46,7 +46,9 @@ export class LiveFeed {
       }
       this.pending.delete(tankId);
       this.lastSent.set(tankId, nowMs);
-      bySite.set(site, [...(bySite.get(site) ?? []), r]);
+      const list = bySite.get(site);
+      if (list) list.push(r);
+      else bySite.set(site, [r]);
     }
     return bySite;
   }

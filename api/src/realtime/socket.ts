@@ -1,14 +1,14 @@
 import { originAllowed } from './origin.ts';
 import type { Server as HttpServer } from 'node:http';
 import { Server, type ServerOptions } from 'socket.io';
-import { socketAuthSchema } from '../../../shared/schemas/socket-events.ts';
+import { liveWatchSchema, socketAuthSchema } from '../../../shared/schemas/socket-events.ts';
 import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
 import { sessionEvents } from '../lib/session-events.ts';
 import type { AuthService } from '../modules/auth/auth.service.ts';
 import { SESSION_COOKIE } from '../modules/auth/tokens.ts';
 import { plantRepository } from '../modules/plant/plant.repository.ts';
-import type { Bus } from './bus.ts';
+import type { TankLive } from '../../../shared/schemas/readings.ts';
 import { attachAlarmFeed } from './alarm-feed.ts';
 import { LiveFeed } from './live-feed.ts';
 import type { RealtimeServer } from './realtime-types.ts';
@@ -23,12 +23,25 @@ function cookieValue(header: string | undefined, name: string): string | undefin
 
 /**
  * socket.io on the API server: the same session as HTTP (cookie, or `auth.token` for scripts),
- * rooms per site and per user, disconnected when the token expires or the user is disabled.
+ * rooms per user, per site for alarms (`site:<tag>`, every site) and per site for live values
+ * (`live:<tag>`, the sites the screen watches), disconnected when the token expires or the user
+ * is disabled.
  */
+/**
+ * Least time between two pushes of one tank: a little under a second, so a tank reporting every
+ * second is never held back to the next tick after a full second, yet a fast probe is thinned.
+ */
+const LIVE_MIN_GAP_MS = 800;
+/** Screens watching every site, including sites added after they connected. */
+const LIVE_ALL = 'live:*';
+
 export type ClusterRealtime = { serverOptions: Partial<ServerOptions>; alarmLease: Lease };
 
 /** `cluster`: several API nodes (api/src/cluster/socket-cluster.ts, README "Scaling out"). */
-export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: Bus, cluster?: ClusterRealtime, publicUrl?: string) {
+/** Where converted readings come from: the broker link (Bus) in the server, anything with the same event in tests. */
+export type LiveSource = { on(event: 'latest', listener: (readings: TankLive[]) => void): unknown };
+
+export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: LiveSource, cluster?: ClusterRealtime, publicUrl?: string) {
   const io: RealtimeServer = new Server(httpServer, {
     serveClient: false, cors: { origin: false }, ...cluster?.serverOptions,
     allowRequest: (req, cb) => {
@@ -54,11 +67,29 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
     next();
   });
 
+  const knownSites = async () => new Set((await plantRepository.probeIntervals()).map((p) => p.siteTag));
+
   io.on('connection', async (socket) => {
     const { user } = socket.data;
     socket.join(`user:${user.id}`);
-    const sites = new Set((await plantRepository.probeIntervals()).map((p) => p.siteTag));
+    // Registered first: a screen may say what it watches before the site list below has loaded.
+    let watching: Promise<void> = Promise.resolve();
+    let told = false;
+    socket.on('live:watch', (watch) => {
+      const parsed = liveWatchSchema.safeParse(watch);
+      if (!parsed.success) return;
+      told = true;
+      watching = watching.then(async () => {
+        const sites = await knownSites();
+        const wanted = new Set(parsed.data.sites === 'all' ? [LIVE_ALL] : parsed.data.sites.filter((s) => sites.has(s)).map((s) => `live:${s}`));
+        for (const room of socket.rooms) if (room.startsWith('live:') && !wanted.has(room)) socket.leave(room);
+        for (const room of wanted) socket.join(room);
+      }).catch((err) => logger.warn({ err: (err as Error).message }, 'live:watch failed'));
+    });
+    const sites = await knownSites();
     for (const s of sites) socket.join(`site:${s}`);
+    // Until the screen says otherwise it watches every site, as before live:watch existed.
+    if (!told) socket.join(LIVE_ALL);
     const timer = setTimeout(() => {
       socket.emit('session:expired');
       socket.disconnect(true);
@@ -83,10 +114,13 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
       lastRefreshMs = Date.now();
       void refreshProbes();
     }
-    for (const [site, readings] of feed.drain(Date.now())) live.to(`site:${site}`).emit('tank:latest', readings);
+    // Not volatile: a screen watching several sites gets one emit per site in the same tick, and a
+    // volatile emit would drop all but the first. A paused screen's backlog waits in its own
+    // buffer (nobody else waits for it) until the heartbeat gives up on it.
+    for (const [site, readings] of feed.drain(Date.now(), LIVE_MIN_GAP_MS)) live.to([`live:${site}`, LIVE_ALL]).emit('tank:latest', readings);
     for (const f of feed.freshnessChanges(Date.now())) {
       const { siteTag, ...payload } = f;
-      live.to(`site:${siteTag}`).emit('probe:freshness', payload);
+      live.to([`live:${siteTag}`, LIVE_ALL]).emit('probe:freshness', payload);
     }
   }, 100);
 
