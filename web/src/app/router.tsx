@@ -65,6 +65,7 @@ export const router = createBrowserRouter([
         errorElement: <RouteError />,
         children: [
           { index: true, element: <FloorRoute /> },
+          { path: 'sites/:tag', element: <FloorRoute /> },
           {
             path: 'tanks/:id',
             loader: ({ params }) => {

@@ -2,7 +2,7 @@ import { useEffect, useRef, useSyncExternalStore } from 'react';
 import { io, type Socket } from 'socket.io-client';
 import type { z } from 'zod';
 import {
-  serverEventSchemas, type ClientToServerEvents, type ServerEventName, type ServerToClientEvents, type SocketAuth,
+  serverEventSchemas, type ClientToServerEvents, type LiveWatch, type ServerEventName, type ServerToClientEvents, type SocketAuth,
 } from '@shared/schemas/socket-events';
 
 type EventName = ServerEventName;
@@ -53,6 +53,14 @@ function onBrowserOffline() {
   setState('offline');
 }
 
+/** The sites whose live values this page shows; told to the server on every (re)connect. */
+let liveSites: LiveWatch['sites'] = 'all';
+/** Asks for live values of these sites only ('all': every site). The Floor of one site narrows it. */
+export function watchLiveSites(sites: LiveWatch['sites']): void {
+  liveSites = sites;
+  if (socket?.connected) socket.emit('live:watch', { sites });
+}
+
 /** Opens the live connection (idempotent). Called once the user is signed in. */
 export function connectSocket(): void {
   if (socket) return;
@@ -69,6 +77,7 @@ export function connectSocket(): void {
   socket = s;
   s.on('connect', () => {
     failures = 0;
+    if (liveSites !== 'all') s.emit('live:watch', { sites: liveSites });
     setState('connected');
   });
   s.on('disconnect', (reason) => {
