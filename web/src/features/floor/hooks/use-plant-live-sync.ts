@@ -1,4 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useRef } from 'react';
 import type { PlantResponse } from '@shared/schemas/plant';
 import type { TankLive } from '@shared/schemas/readings';
 import { useSocketEvent } from '../../../lib/socket';
@@ -33,8 +34,24 @@ export function mergeLatest(plant: PlantResponse, readings: TankLive[]): PlantRe
 /** Writes socket pushes into the plant cache. Mounted once by the app shell, so every screen stays live. */
 export function usePlantLiveSync(): void {
   const qc = useQueryClient();
+  // Pushes arrive one per site each tick: they are gathered and written once per frame, so a
+  // plant of many sites repaints once, not once per site.
+  const pending = useRef<TankLive[]>([]);
+  const frame = useRef<number | null>(null);
+  useEffect(() => () => {
+    if (frame.current !== null) cancelAnimationFrame(frame.current);
+  }, []);
   useSocketEvent('tank:latest', (readings) => {
-    qc.setQueryData<PlantResponse>(plantKeys.tree(), (old) => (old ? mergeLatest(old, readings) : old));
+    pending.current.push(...readings);
+    const write = () => {
+      frame.current = null;
+      const batch = pending.current;
+      pending.current = [];
+      qc.setQueryData<PlantResponse>(plantKeys.tree(), (old) => (old ? mergeLatest(old, batch) : old));
+    };
+    // A hidden tab gets no frames: write at once there (nothing is painted) instead of piling up.
+    if (document.hidden) write();
+    else frame.current ??= requestAnimationFrame(write);
   });
   useSocketEvent('probe:freshness', (f) => {
     qc.setQueryData<FreshnessByProbe>(plantKeys.freshness(), (old) => ({ ...(old ?? {}), [f.probeId]: f }));
