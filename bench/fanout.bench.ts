@@ -13,14 +13,13 @@ import { readFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import mqtt, { type MqttClient } from 'mqtt';
+import mqtt from 'mqtt';
 import { createIngestPool } from '../api/src/db/pool.ts';
 import { latestMessageSchema, latestTopic, parseInternal } from '../shared/schemas/internal-topics.ts';
-import { batchTopic } from '../shared/schemas/readings.ts';
 import { JWT_SECRET, startCluster } from '../tests/scale/lib/cluster.ts';
 import { rssMiB, SERVICE_PASSWORD } from '../tests/reliability/lib/procs.ts';
 import { quantile } from './lib/bench-db.ts';
-import { roleTokens, seedFanoutPlant, type FanoutSite } from './lib/fanout-plant.ts';
+import { roleTokens, seedFanoutPlant, startGateways } from './lib/fanout-plant.ts';
 import { benchServer } from './lib/scale-phases.ts';
 import { connectScreens, pausedScreens, type Screen } from './lib/screens.ts';
 import { writeBenchSection } from './lib/results.ts';
@@ -50,35 +49,6 @@ function cpuSeconds(pid: number): number {
   } catch {
     return NaN;
   }
-}
-
-/** Every site's gateway publishes its tanks' readings once a second, one batch message per site. */
-async function startGateways(mqttPort: number, sites: FanoutSite[]): Promise<{ stop(): Promise<void> }> {
-  const clients: MqttClient[] = [];
-  for (const s of sites) {
-    clients.push(await mqtt.connectAsync(`mqtt://127.0.0.1:${mqttPort}`, { username: s.device, password: s.password, clientId: `${s.device}-bench`, protocolVersion: 4, reconnectPeriod: 500 }));
-  }
-  let seq = 0;
-  let running = true;
-  const loop = (async () => {
-    while (running) {
-      const tick = Date.now();
-      seq += 1;
-      await Promise.all(sites.map((s, i) => {
-        const ts = new Date().toISOString();
-        const readings = s.probes.map((p, k) => ({ probe: p.tag, ts, orpMv: 440 + ((seq + k) % 20), tempC: 45, seq }));
-        return clients[i]!.publishAsync(batchTopic(s.tag), JSON.stringify({ readings }), { qos: 1 });
-      }));
-      await sleep(Math.max(0, 1000 - (Date.now() - tick)));
-    }
-  })();
-  return {
-    async stop() {
-      running = false;
-      await loop;
-      await Promise.all(clients.map((c) => c.endAsync(true)));
-    },
-  };
 }
 
 type Row = { nodes: number; clients: number; p50: number; p99: number; perClientPerS: number; oneSitePerS: number; allSitesPerS: number; cpuPer100: number; rssPer100: number; pausedP99?: number };

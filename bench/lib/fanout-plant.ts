@@ -4,9 +4,13 @@
  * gateway account per site, and a signed-in user per role. Everything is invented.
  */
 import bcrypt from 'bcryptjs';
+import mqtt, { type MqttClient } from 'mqtt';
 import type { Pool } from '../../api/src/db/pool.ts';
 import { issueToken } from '../../api/src/modules/auth/tokens.ts';
 import type { Role } from '../../shared/schemas/auth.ts';
+import { batchTopic } from '../../shared/schemas/readings.ts';
+
+const sleep = (ms: number) => new Promise<void>((r) => setTimeout(r, ms));
 
 export type FanoutSite = { id: number; tag: string; device: string; password: string; probes: { id: number; tag: string; tankId: number }[] };
 export type FanoutPlant = { sites: FanoutSite[]; tanks: number };
@@ -59,4 +63,33 @@ export async function roleTokens(pool: Pool, secret: string): Promise<{ role: Ro
     out.push({ role, token: issueToken({ id: row!.id, role }, secret, 3600) });
   }
   return out;
+}
+
+/** Every site's gateway publishes its tanks' readings once a second, one batch message per site. */
+export async function startGateways(mqttPort: number, sites: FanoutSite[]): Promise<{ stop(): Promise<void> }> {
+  const clients: MqttClient[] = [];
+  for (const s of sites) {
+    clients.push(await mqtt.connectAsync(`mqtt://127.0.0.1:${mqttPort}`, { username: s.device, password: s.password, clientId: `${s.device}-bench`, protocolVersion: 4, reconnectPeriod: 500 }));
+  }
+  let seq = 0;
+  let running = true;
+  const loop = (async () => {
+    while (running) {
+      const tick = Date.now();
+      seq += 1;
+      await Promise.all(sites.map((s, i) => {
+        const ts = new Date().toISOString();
+        const readings = s.probes.map((p, k) => ({ probe: p.tag, ts, orpMv: 440 + ((seq + k) % 20), tempC: 45, seq }));
+        return clients[i]!.publishAsync(batchTopic(s.tag), JSON.stringify({ readings }), { qos: 1 });
+      }));
+      await sleep(Math.max(0, 1000 - (Date.now() - tick)));
+    }
+  })();
+  return {
+    async stop() {
+      running = false;
+      await loop;
+      await Promise.all(clients.map((c) => c.endAsync(true)));
+    },
+  };
 }
