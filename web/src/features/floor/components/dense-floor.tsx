@@ -67,7 +67,7 @@ export function DenseFloor({ rows, multiSite }: { rows: Row[]; multiSite: boolea
                 {inBand} / {circuit.tanks.length} in band
               </span>
             </h2>
-            <ul className="grid gap-2" style={{ gridTemplateColumns: 'repeat(auto-fill, minmax(7.5rem, 1fr))' }}>
+            <ul className="grid gap-2" style={{ gridTemplateColumns: 'repeat(auto-fill, minmax(8.75rem, 1fr))' }}>
               {circuit.tanks.map((tank, i) => (
                 <li key={tank.id} className="h-16 min-w-0">
                   <CompactTile tank={tank} status={statuses[i]} alarm={badges.get(tank.id)} held={held.get(tank.id)} />
