@@ -3,7 +3,9 @@
 #   scripts/ensure-deps.sh          MariaDB server + client (Debian packages), npm packages
 #   scripts/ensure-deps.sh test     the same, plus Debian's chromium for the browser tests
 #                                   (skipped when FERRISIGHT_BROWSER_TESTS=0); plus redis-server
-#                                   when the scale tests run (CI=true or FERRISIGHT_SCALE=1)
+#                                   when the scale tests run (CI=true or FERRISIGHT_SCALE=1), and
+#                                   Debian's mosquitto for the external-broker tests and bench:scale
+#                                   (CI=true, FERRISIGHT_SCALE=1 or FERRISIGHT_MOSQUITTO=1)
 #   scripts/ensure-deps.sh cluster  the same as start, plus Debian's redis-server (npm run start:cluster)
 # Installs only what is missing; prints one line per step it takes.
 set -euo pipefail
@@ -27,6 +29,11 @@ fi
 # Redis carries socket.io between API nodes (README "Scaling out"): only the cluster paths need it.
 if { [ "$MODE" = "cluster" ] || { [ "$MODE" = "test" ] && { [ "${CI:-}" = "true" ] || [ "${FERRISIGHT_SCALE:-0}" = "1" ]; }; }; } && ! have redis-server; then
   pkgs+=(redis-server)
+fi
+# mosquitto 2 stands in for a site's own broker (README "Scaling out"): only those tests use it.
+if [ "$MODE" = "test" ] && { [ "${CI:-}" = "true" ] || [ "${FERRISIGHT_SCALE:-0}" = "1" ] || [ "${FERRISIGHT_MOSQUITTO:-0}" = "1" ]; } \
+    && { ! have mosquitto || ! have mosquitto_passwd; }; then
+  pkgs+=(mosquitto)
 fi
 if [ "${#pkgs[@]}" -gt 0 ]; then
   if [ "$(id -u)" != "0" ]; then
