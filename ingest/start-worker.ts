@@ -13,6 +13,7 @@ import { ProbeCache } from '../api/src/modules/readings/probe-cache.ts';
 import { deleteExpiredReadings, deleteExpiredRefusals } from '../api/src/modules/readings/retention.repository.ts';
 import { Lease } from '../api/src/cluster/lease.ts';
 import { loadTags, SliceSubscriptions, type SlicePlan } from './slices.ts';
+import { startSparkplugHost } from './sparkplug/connection.ts';
 
 export type WorkerOptions = {
   databaseUrl: string;
@@ -37,6 +38,8 @@ export type WorkerOptions = {
   slice?: SlicePlan | null;
   /** Sliced workers run retention under a database lease of this TTL, so one of them does it. */
   leaseTtlMs?: number;
+  /** Sparkplug B host id (README "Sparkplug B edge nodes"); null or 'off': no host. Sliced, only slice 1 runs it. */
+  sparkplugHostId?: string | null;
   log?: Logger;
 };
 
@@ -44,6 +47,8 @@ export type RunningWorker = {
   metrics: IngestMetrics;
   /** Resolves once the broker has confirmed the subscription (first connection). */
   subscribed: Promise<void>;
+  /** Resolves once the Sparkplug host is online (at once when none runs). */
+  sparkplugReady: Promise<void>;
   stop: () => Promise<void>;
 };
 
@@ -97,7 +102,12 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   });
   // Sliced: subscriptions follow the plant (a new site or probe joins its slice at the next refresh).
   const slices = plan ? new SliceSubscriptions(intake.client, plan, () => loadTags(pool), log, topicFilter) : null;
-  const refresh = () => Promise.all([reloadCache(), slices?.sync()]);
+  // One host per broker: Sparkplug sequence numbers are per edge node, so its messages must not be split over workers.
+  const hostId = opts.sparkplugHostId === undefined ? 'ferrisight' : opts.sparkplugHostId;
+  const sparkplug = hostId && hostId !== 'off' && (!plan || plan.index === 1)
+    ? startSparkplugHost({ mqttUrl: opts.mqttUrl, username: opts.username, password: opts.password, hostId, pool, flusher, metrics, log })
+    : null;
+  const refresh = () => Promise.all([reloadCache(), slices?.sync(), sparkplug?.reload()]);
   const retentionLease = plan ? new Lease(pool, 'ingest-retention', { ttlMs: opts.leaseTtlMs, log }).start() : null;
   live = new LivePublisher(intake.client);
   corked = intake.corked;
@@ -125,11 +135,13 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
 
   return {
     metrics,
+    sparkplugReady: sparkplug?.ready ?? Promise.resolve(),
     subscribed: slices ? Promise.all([intake.subscribed, slices.firstSync]).then(() => undefined) : intake.subscribed,
     async stop() {
       for (const t of timers) clearTimeout(t);
       await retentionLease?.stop();
       intake.stopTaking();
+      await sparkplug?.stop();
       await flusher.stop();
       // Graceful end writes the PUBACKs of the last commit before DISCONNECT; force after 2 s.
       await Promise.race([intake.client.endAsync(false), new Promise((r) => setTimeout(r, 2_000))]);

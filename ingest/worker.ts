@@ -31,6 +31,7 @@ async function main(): Promise<void> {
     lingerMs: cfg.INGEST_FLUSH_MS,
     maxReadingsPerFlush: cfg.INGEST_FLUSH_MAX_READINGS,
     flushConcurrency: cfg.INGEST_FLUSH_CONCURRENCY,
+    sparkplugHostId: cfg.SPARKPLUG_HOST_ID,
     log,
   });
   log.info({ clientId, filter: cfg.INGEST_TOPIC_FILTER, slice: cfg.INGEST_SLICE, ackMode: cfg.INGEST_ACK_MODE }, 'ingest worker started');

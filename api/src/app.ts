@@ -29,6 +29,7 @@ import { digestRouter } from './modules/digest/digest.router.ts';
 import { exportRouter } from './modules/readings-io/export.router.ts';
 import { importRouter } from './modules/readings-io/import.router.ts';
 import { shiftLogRouter, shiftsRouter } from './modules/shifts/shifts.router.ts';
+import { sparkplugRouter } from './modules/sparkplug/sparkplug.router.ts';
 import type { Bus } from './realtime/bus.ts';
 
 export type AppDeps = {
@@ -52,6 +53,8 @@ export type AppDeps = {
   /** Express 'trust proxy': which peers may name the client in X-Forwarded-For (TRUST_PROXY); default none. */
   trustProxy?: boolean | number | string[];
   signInLimits?: SignInLimitSettings;
+  /** The ingest worker's Sparkplug host id, shown in Plant setup; default 'ferrisight'. */
+  sparkplugHostId?: string;
 };
 
 /** Builds the Express app without listening, so tests drive it with supertest. */
@@ -89,6 +92,7 @@ export function createApp(deps: AppDeps): Express {
     ['/api', plantRouter()],
     ['/api/admin', adminRouter(deps.bus, deps.dataDir)],
     ['/api/admin/mail', mailRouter(deps.mailDir)],
+    ['/api/admin/sparkplug', sparkplugRouter({ bus: deps.bus, hostId: deps.sparkplugHostId ?? 'ferrisight' })],
     ['/api/alarms', alarmsRouter()],
     ['/api/roster', rosterRouter()],
     ['/ack', ackRouter(deps.ackSecret, undefined, https)],

@@ -66,6 +66,8 @@ const schema = z.object({
   INGEST_SLICE_BY: z.enum(['site', 'probe']).default('site'),
   /** Broker-side balancing ($share/<group>/…) where the site's broker supports it; not aedes. */
   INGEST_SHARED_GROUP: z.string().regex(/^[A-Za-z0-9_.-]{1,64}$/, 'letters, digits, _ . - only').optional(),
+  /** Sparkplug B host id: STATE topic spBv1.0/STATE/<id> (README "Sparkplug B edge nodes"); 'off' runs no host. */
+  SPARKPLUG_HOST_ID: z.string().regex(/^[A-Za-z0-9_.-]{1,64}$/, 'letters, digits, _ . - only').default('ferrisight'),
   /** Set: socket.io across API nodes through the Redis Streams adapter; unset: one API node. */
   REDIS_URL: z.string().regex(/^rediss?:\/\//, 'must start with redis:// or rediss://').optional(),
   /** A read replica for read-only trend queries; unset: DATABASE_URL. */

@@ -23,7 +23,7 @@ async function main(): Promise<void> {
   const auth = createAuthService({ jwtSecret: cfg.JWT_SECRET, ttlS: cfg.JWT_TTL_S });
   const bus = cfg.SERVICE_MQTT_PASSWORD ? new Bus(cfg.MQTT_URL, cfg.SERVICE_MQTT_USER, cfg.SERVICE_MQTT_PASSWORD) : undefined;
   if (!bus) logger.warn('SERVICE_MQTT_PASSWORD unset: no live values from the broker');
-  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, dataDir: cfg.FERRISIGHT_DATA_DIR, rawRetentionDays: cfg.RAW_RETENTION_DAYS, deadLetterRetentionDays: cfg.DEAD_LETTER_RETENTION_DAYS, ackSecret: cfg.JWT_SECRET, mailDir: path.resolve(cfg.FERRISIGHT_DATA_DIR, 'mail'), https: cfg.PUBLIC_URL?.startsWith('https://') ?? false, trustProxy: cfg.TRUST_PROXY });
+  const app = createApp({ auth, ttlS: cfg.JWT_TTL_S, webDist: cfg.WEB_DIST, bus, dataDir: cfg.FERRISIGHT_DATA_DIR, rawRetentionDays: cfg.RAW_RETENTION_DAYS, deadLetterRetentionDays: cfg.DEAD_LETTER_RETENTION_DAYS, ackSecret: cfg.JWT_SECRET, mailDir: path.resolve(cfg.FERRISIGHT_DATA_DIR, 'mail'), https: cfg.PUBLIC_URL?.startsWith('https://') ?? false, trustProxy: cfg.TRUST_PROXY, sparkplugHostId: cfg.SPARKPLUG_HOST_ID });
   const server = http.createServer(app);
   // Several API nodes (README "Scaling out"): socket.io through Redis, alarm broadcast by the lease holder.
   const cluster = cfg.REDIS_URL ? await connectSocketCluster(cfg.REDIS_URL) : undefined;

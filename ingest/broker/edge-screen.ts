@@ -1,5 +1,6 @@
 import type { Logger } from 'pino';
 import { parseTopic } from '../../shared/schemas/readings.ts';
+import { SPARKPLUG_NAMESPACE } from '../../shared/schemas/sparkplug.ts';
 import { inTransaction, type Pool } from '../../api/src/db/pool.ts';
 import { insertDeadLetters, type DeadLetter } from '../../api/src/modules/readings/dead-letters.repository.ts';
 import { decodeMessage } from '../../api/src/modules/readings/decode.ts';
@@ -11,7 +12,8 @@ import { decodeMessage } from '../../api/src/modules/readings/decode.ts';
  * unknown probe, a clock out of range): only the device contract itself is checked here.
  */
 export function screenMessage(topic: string, payload: Buffer, receivedAtMs: number): DeadLetter | null {
-  if (parseTopic(topic)?.kind === 'batch') return null;
+  // Batches and Sparkplug (protobuf, judged by the worker's host against births) stay with the worker.
+  if (parseTopic(topic)?.kind === 'batch' || topic.startsWith(`${SPARKPLUG_NAMESPACE}/`)) return null;
   const decoded = decodeMessage(topic, payload);
   if (decoded.readings.length > 0 || decoded.rejections.length === 0) return null;
   const [refused] = decoded.rejections;

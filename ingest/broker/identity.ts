@@ -3,8 +3,8 @@ import bcrypt from 'bcryptjs';
 import type { Pool } from '../../api/src/db/pool.ts';
 import { lookupsRepository, type DeviceRow } from '../../api/src/modules/readings/lookups.repository.ts';
 
-/** Who a connected client is; devices are bound to one site. */
-export type Identity = { kind: 'service'; username: string } | { kind: 'device'; username: string; siteTag: string };
+/** Who a connected client is; devices are bound to one site, and to the Sparkplug groups Plant setup gave that site. */
+export type Identity = { kind: 'service'; username: string } | { kind: 'device'; username: string; siteTag: string; sparkplugGroups: string[] };
 
 type CacheEntry = { atMs: number; row: DeviceRow | null; verifiedSha256: Buffer | null };
 
@@ -14,6 +14,11 @@ const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest();
 export function secretsEqual(a: Buffer | string, b: Buffer | string): boolean {
   return timingSafeEqual(sha256(a), sha256(b));
 }
+
+// Group ids never contain '/', so it separates them.
+const deviceIdentity = (username: string, row: DeviceRow): Identity => ({
+  kind: 'device', username, siteTag: row.site_tag, sparkplugGroups: row.sparkplug_groups ? row.sparkplug_groups.split('/') : [],
+});
 
 /**
  * Checks MQTT credentials: the service account against its configured password, devices
@@ -41,11 +46,11 @@ export class IdentityDirectory {
     if (!entry.row || !entry.row.enabled) return null;
     const digest = sha256(password);
     if (entry.verifiedSha256 && timingSafeEqual(entry.verifiedSha256, digest)) {
-      return { kind: 'device', username, siteTag: entry.row.site_tag };
+      return deviceIdentity(username, entry.row);
     }
     if (!(await bcrypt.compare(password.toString('utf8'), entry.row.password_hash))) return null;
     entry.verifiedSha256 = digest;
-    return { kind: 'device', username, siteTag: entry.row.site_tag };
+    return deviceIdentity(username, entry.row);
   }
 
   private async lookup(username: string): Promise<CacheEntry> {

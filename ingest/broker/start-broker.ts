@@ -146,7 +146,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       });
     },
     authorizeSubscribe: (client, sub, done) => {
-      const refusal = subscribeRefusal(identities.get(client));
+      const refusal = subscribeRefusal(identities.get(client), sub.topic);
       if (refusal) {
         log.warn({ clientId: client.id, topic: sub.topic.slice(0, 200), refusal }, 'mqtt subscribe refused');
         return done(null, null); // negated: SUBACK 0x80 and no subscription

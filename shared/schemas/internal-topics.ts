@@ -14,6 +14,12 @@ export const LATEST_FILTER = latestTopic('+');
 export const latestMessageSchema = z.object({ readings: z.array(tankLiveSchema) });
 export type LatestMessage = z.infer<typeof latestMessageSchema>;
 
+/** Ingest → API: these probes' source went offline (a Sparkplug death certificate): stale at once. */
+export const offlineTopic = (siteTag: string) => `${INTERNAL_PREFIX}/${siteTag}/offline`;
+export const OFFLINE_FILTER = offlineTopic('+');
+export const probesOfflineSchema = z.object({ probeIds: z.array(z.number().int().positive()), atMs: z.number().int() });
+export type ProbesOffline = z.infer<typeof probesOfflineSchema>;
+
 /** Ingest worker's retained health snapshot (ingestHealthSchema). */
 export const INGEST_HEALTH_TOPIC = `${INTERNAL_PREFIX}/ingest/health`;
 /** Embedded broker's retained health snapshot (brokerHealthSchema). */

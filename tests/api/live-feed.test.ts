@@ -39,4 +39,18 @@ describe('live feed', () => {
     feed.setProbes([{ probeId: 1, tankId: 1, siteTag: 's', intervalS: 5 }, { probeId: 7, tankId: 7, siteTag: 'new', intervalS: 5 }]);
     expect(feed.drain(10_100).get('new')?.map((r) => r.tankId)).toEqual([7]);
   });
+
+  it('when a probe\'s source announces its death, then it is stale on the next tick, and fresh again only with a newer reading', () => {
+    const feed = new LiveFeed();
+    feed.setProbes([{ probeId: 1, tankId: 1, siteTag: 's', intervalS: 5 }, { probeId: 2, tankId: 2, siteTag: 's', intervalS: 5 }]);
+    feed.push([reading(1, new Date(1000).toISOString()), reading(2, new Date(1000).toISOString())]);
+    expect(feed.freshnessChanges(2000).map((f) => f.stale)).toEqual([false, false]);
+    feed.markOffline([1], 2500);
+    // Well inside three intervals: only the death makes probe 1 stale; probe 2 is untouched.
+    expect(feed.freshnessChanges(2600).map((f) => [f.probeId, f.stale])).toEqual([[1, true]]);
+    feed.push([reading(1, new Date(2400).toISOString())]); // older than the death: still stale
+    expect(feed.freshnessChanges(2700)).toEqual([]);
+    feed.push([reading(1, new Date(3000).toISOString())]);
+    expect(feed.freshnessChanges(3100).map((f) => [f.probeId, f.stale])).toEqual([[1, false]]);
+  });
 });

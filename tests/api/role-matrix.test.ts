@@ -23,6 +23,12 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'GET', path: '/api/admin/simulator', allowed: ['admin'] },
   { method: 'POST', path: '/api/admin/simulator', allowed: ['admin'], body: {} },
   { method: 'GET', path: '/api/admin/ingest-health', allowed: ['admin'] },
+  // Plant setup → Sparkplug edge nodes: admins only.
+  { method: 'GET', path: '/api/admin/sparkplug', allowed: ['admin'] },
+  { method: 'POST', path: '/api/admin/sparkplug/groups', allowed: ['admin'], body: {} },
+  { method: 'DELETE', path: '/api/admin/sparkplug/groups/:id', allowed: ['admin'] },
+  { method: 'POST', path: '/api/admin/sparkplug/mappings', allowed: ['admin'], body: {} },
+  { method: 'DELETE', path: '/api/admin/sparkplug/mappings/:id', allowed: ['admin'] },
   // Metallurgist's workbench: everyone reads; metallurgists and admins change; supervisors and metallurgists decide.
   { method: 'GET', path: '/api/bands', allowed: ALL },
   { method: 'GET', path: '/api/bands/changes', allowed: ALL },

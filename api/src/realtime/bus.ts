@@ -2,14 +2,14 @@ import { EventEmitter } from 'node:events';
 import mqtt, { type MqttClient } from 'mqtt';
 import { brokerHealthSchema, ingestHealthSchema, type BrokerHealth, type IngestHealth } from '../../../shared/schemas/ingest-health.ts';
 import {
-  BROKER_HEALTH_TOPIC, CACHE_INVALIDATE_TOPIC, INGEST_HEALTH_TOPIC, LATEST_FILTER, SIM_COMMAND_TOPIC, SIM_STATE_TOPIC,
-  latestMessageSchema, latestTopic, parseInternal,
+  BROKER_HEALTH_TOPIC, CACHE_INVALIDATE_TOPIC, INGEST_HEALTH_TOPIC, LATEST_FILTER, OFFLINE_FILTER, SIM_COMMAND_TOPIC, SIM_STATE_TOPIC,
+  latestMessageSchema, latestTopic, parseInternal, probesOfflineSchema, type ProbesOffline,
 } from '../../../shared/schemas/internal-topics.ts';
 import type { TankLive } from '../../../shared/schemas/readings.ts';
 import { simStateSchema, type ActiveFault, type SimCommand } from '../../../shared/schemas/simulator.ts';
 import { logger } from '../lib/logger.ts';
 
-type BusEvents = { latest: [readings: TankLive[]]; status: [connected: boolean] };
+type BusEvents = { latest: [readings: TankLive[]]; offline: [offline: ProbesOffline]; status: [connected: boolean] };
 
 /**
  * The API's link to the broker: the ingest worker publishes converted readings on internal
@@ -26,7 +26,7 @@ export class Bus extends EventEmitter<BusEvents> {
     super();
     this.client = mqtt.connect(url, { username, password, clientId, protocolVersion: 4, clean: true, reconnectPeriod: 2000 });
     this.client.on('connect', () => {
-      this.client.subscribe([LATEST_FILTER, SIM_STATE_TOPIC, INGEST_HEALTH_TOPIC, BROKER_HEALTH_TOPIC], { qos: 0 });
+      this.client.subscribe([LATEST_FILTER, OFFLINE_FILTER, SIM_STATE_TOPIC, INGEST_HEALTH_TOPIC, BROKER_HEALTH_TOPIC], { qos: 0 });
       this.emit('status', true);
     });
     this.client.on('close', () => this.emit('status', false));
@@ -39,6 +39,7 @@ export class Bus extends EventEmitter<BusEvents> {
       if (topic === SIM_STATE_TOPIC) this.simState = parseInternal(simStateSchema, topic, payload).faults;
       else if (topic === INGEST_HEALTH_TOPIC) this.ingestHealth = parseInternal(ingestHealthSchema, topic, payload);
       else if (topic === BROKER_HEALTH_TOPIC) this.brokerHealth = parseInternal(brokerHealthSchema, topic, payload);
+      else if (topic.endsWith('/offline')) this.emit('offline', parseInternal(probesOfflineSchema, topic, payload));
       else this.emit('latest', parseInternal(latestMessageSchema, topic, payload).readings);
     } catch (err) {
       logger.warn({ topic, err: (err as Error).message }, 'unreadable internal message');

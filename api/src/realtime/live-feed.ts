@@ -15,6 +15,8 @@ export class LiveFeed {
   private probes = new Map<number, ProbeMeta>();
   /** A reading came for a probe not in the list (added in Plant setup since the last refresh). */
   unknownProbe = false;
+  /** Probe → when its source announced it went offline; stale until a newer reading arrives. */
+  private offlineAt = new Map<number, number>();
 
   setProbes(list: ProbeMeta[]): void {
     this.probes = new Map(list.map((p) => [p.probeId, p]));
@@ -58,13 +60,19 @@ export class LiveFeed {
     const out: Array<ProbeFreshness & { siteTag: string }> = [];
     for (const p of this.probes.values()) {
       const last = this.lastSeen.get(p.probeId);
-      const isStale = last === undefined || nowMs - last > 3 * p.intervalS * 1000;
+      const offline = this.offlineAt.get(p.probeId);
+      const isStale = last === undefined || nowMs - last > 3 * p.intervalS * 1000 || (offline !== undefined && last <= offline);
       if (this.stale.get(p.probeId) !== isStale) {
         this.stale.set(p.probeId, isStale);
         out.push({ probeId: p.probeId, tankId: p.tankId, siteTag: p.siteTag, stale: isStale, lastTs: last ? new Date(last).toISOString() : null });
       }
     }
     return out;
+  }
+
+  /** A death certificate: these probes are stale now, not after three intervals (until a newer reading). */
+  markOffline(probeIds: number[], atMs: number): void {
+    for (const id of probeIds) this.offlineAt.set(id, atMs);
   }
 
   seed(probeId: number, lastTs: number): void {

@@ -1,6 +1,7 @@
 import { originAllowed } from './origin.ts';
 import type { Server as HttpServer } from 'node:http';
 import { Server, type ServerOptions } from 'socket.io';
+import type { ProbesOffline } from '../../../shared/schemas/internal-topics.ts';
 import { liveWatchSchema, socketAuthSchema } from '../../../shared/schemas/socket-events.ts';
 import type { Lease } from '../cluster/lease.ts';
 import { logger } from '../lib/logger.ts';
@@ -38,8 +39,14 @@ const LIVE_ALL = 'live:*';
 export type ClusterRealtime = { serverOptions: Partial<ServerOptions>; alarmLease: Lease };
 
 /** `cluster`: several API nodes (api/src/cluster/socket-cluster.ts, README "Scaling out"). */
-/** Where converted readings come from: the broker link (Bus) in the server, anything with the same event in tests. */
-export type LiveSource = { on(event: 'latest', listener: (readings: TankLive[]) => void): unknown };
+/**
+ * Where converted readings and offline announcements (a Sparkplug NDEATH/DDEATH) come from: the
+ * broker link (Bus) in the server, anything with the same events in tests.
+ */
+export type LiveSource = {
+  on(event: 'latest', listener: (readings: TankLive[]) => void): unknown;
+  on(event: 'offline', listener: (offline: ProbesOffline) => void): unknown;
+};
 
 export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: LiveSource, cluster?: ClusterRealtime, publicUrl?: string) {
   const io: RealtimeServer = new Server(httpServer, {
@@ -107,6 +114,7 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
   void refreshProbes();
   const probeTimer = setInterval(refreshProbes, 60_000);
   bus?.on('latest', (readings) => feed.push(readings));
+  bus?.on('offline', (o) => feed.markOffline(o.probeIds, o.atMs));
   let lastRefreshMs = 0;
   const flushTimer = setInterval(() => {
     if (feed.unknownProbe && Date.now() - lastRefreshMs >= 1000) {

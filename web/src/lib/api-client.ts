@@ -92,6 +92,7 @@ export const api = {
     apiRequest<T>(path, { ...opts, method: 'PATCH', body }),
   put: <T>(path: string, body: unknown, opts?: Omit<RequestOptions, 'method' | 'body'>) =>
     apiRequest<T>(path, { ...opts, method: 'PUT', body }),
+  delete: <T = void>(path: string, opts?: Omit<RequestOptions, 'method' | 'body'>) => apiRequest<T>(path, { ...opts, method: 'DELETE' }),
 };
 
 /**

@@ -37,7 +37,8 @@ const TAGS_SQL = `
 export type CalibrationRow = {
   tankId: number; version: number; formalPotentialV: number; formalCoeffVPerK: number; slopeEfficiency?: number; validFromMs: number;
 };
-export type DeviceRow = { username: string; password_hash: string; enabled: number; site_tag: string };
+/** sparkplug_groups: the site's Sparkplug group ids joined by '/' (never part of a group id), or null. */
+export type DeviceRow = { username: string; password_hash: string; enabled: number; site_tag: string; sparkplug_groups: string | null };
 
 export const lookupsRepository = {
   /** Every probe with its tank, site, reference electrode and the tank's highest calibration version. */
@@ -64,10 +65,11 @@ export const lookupsRepository = {
     return rows.map((r) => ({ siteTag: r.site_tag, probeTag: r.probe_tag }));
   },
 
-  /** A device's stored credentials and site, or null when the username is unknown or retired. */
+  /** A device's stored credentials, site and its site's Sparkplug groups, or null when the username is unknown or retired. */
   async device(pool: Pool, username: string): Promise<DeviceRow | null> {
     const rows: DeviceRow[] = await pool.query(
-      `SELECT d.username, d.password_hash, d.enabled, s.tag AS site_tag
+      `SELECT d.username, d.password_hash, d.enabled, s.tag AS site_tag,
+              (SELECT GROUP_CONCAT(g.group_id SEPARATOR '/') FROM sparkplug_groups g WHERE g.site_id = d.site_id) AS sparkplug_groups
          FROM devices d JOIN sites s ON s.id = d.site_id WHERE d.username = ? AND d.retired_at IS NULL`, [username]);
     // The column's collation ignores case and trailing spaces; a login must match exactly.
     return rows.find((r) => r.username === username) ?? null;

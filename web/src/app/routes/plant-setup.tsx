@@ -8,14 +8,27 @@ import { usePlant } from '../../features/floor/api/get-plant';
 import { DeadLettersPanel } from '../../features/plant-setup/components/dead-letters-panel';
 import { PlantParts } from '../../features/plant-setup/components/plant-parts';
 import { CaughtMailPanel } from '../../features/roster/components/caught-mail-panel';
+import { SparkplugPanel, type SparkplugSiteOption } from '../../features/sparkplug/components/sparkplug-panel';
 import { SCREENS } from '../screens';
 import { RoleGate } from './role-gate';
 
 const TABS = [
   { id: 'plant', label: 'Plant', admin: false },
   { id: 'dead-letters', label: 'Dead letters and conflicts', admin: false },
+  { id: 'sparkplug', label: 'Sparkplug edge nodes', admin: true },
   { id: 'people', label: 'People and services', admin: true },
 ] as const;
+
+function SparkplugSection() {
+  const plant = usePlant();
+  if (!plant.data) return null;
+  const sites: SparkplugSiteOption[] = plant.data.sites.map((s) => ({
+    id: s.id,
+    tag: s.tag,
+    probes: s.circuits.flatMap((c) => c.tanks.flatMap((t) => (t.probe ? [{ id: t.probe.id, label: `${t.probe.tag} (tank ${t.tag})` }] : []))),
+  }));
+  return <SparkplugPanel sites={sites} timeZone={plant.data.sites[0]?.timeZone ?? 'UTC'} />;
+}
 
 function PeopleAndServices({ userId }: { userId: number }) {
   const plant = usePlant();
@@ -58,6 +71,7 @@ function PlantSetup() {
       </nav>
       {tab === 'plant' && <PlantParts canEditStructure={isAdmin} canEditField={isAdmin || user?.role === 'engineer'} />}
       {tab === 'dead-letters' && <DeadLettersPanel siteTags={plant.data?.sites.map((s) => s.tag) ?? []} />}
+      {tab === 'sparkplug' && isAdmin && <SparkplugSection />}
       {tab === 'people' && isAdmin && <PeopleAndServices userId={user?.id ?? -1} />}
     </div>
   );
