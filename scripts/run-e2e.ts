@@ -28,7 +28,7 @@ import { findFreePort } from './lib/ports.ts';
 import { finisher, onFirstSignal, runInherited, seconds, sleep, waitForExit } from './lib/proc.ts';
 import { liveSupervisor, readRunFile, stopLeftoverParts } from './lib/run-file.ts';
 import { claimScratchDir, type ScratchDir } from './lib/scratch-dir.ts';
-import { ensurePrivateDir } from './lib/secrets.ts';
+import { ensurePrivateDir, loadSecrets } from './lib/secrets.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const DATA_DIR = path.join(ROOT, '.data');
@@ -232,6 +232,8 @@ async function main(): Promise<void> {
   say(`App up at ${demo.url} (${seconds(Date.now() - t0)})`);
 
   const env: NodeJS.ProcessEnv = { ...base, E2E_BASE_URL: demo.url, E2E_PASSWORD: demoPassword() };
+  // The Sparkplug browser test connects an edge node with the demo site's device account.
+  Object.assign(env, { E2E_MQTT_URL: `mqtt://127.0.0.1:${demo.mqttPort}`, E2E_DEVICE_USER: 'sim-kestrel', E2E_DEVICE_PASSWORD: loadSecrets(demo.dir).SIM_DEVICE_PASSWORD });
   const files = args.filter((a) => !a.startsWith('-'));
   if (files.length === 0 || files.some((f) => f.includes('commissioning'))) {
     const site = await startApp('test-e2e-site', 'an empty site (no demo data) for the commissioning test', { DEMO: 'off', SIMULATOR: 'off', DEMO_HISTORY: 'off' }, base);
