@@ -4,8 +4,9 @@
  */
 import { rmSync } from 'node:fs';
 import path from 'node:path';
-import type { MqttClient } from 'mqtt';
+import mqtt, { type MqttClient } from 'mqtt';
 import { createMigrator, createSequelize } from '../../api/src/db/sequelize.ts';
+import { latestMessageSchema, latestTopic, parseInternal } from '../../shared/schemas/internal-topics.ts';
 import { batchTopic, readingTopic } from '../../shared/schemas/readings.ts';
 import { bootstrapTcpRoot, mariadbQuery, startMariadb, stopMariadb, type MariadbOptions } from '../../scripts/lib/mariadb.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
@@ -108,4 +109,42 @@ export async function alarmLatency(pool: Pool, mqttPort: number, tanks: AlarmTan
     if (at !== undefined) lat.push(at - sent.get(e.definition_id)!);
   }
   return { p50: quantile(lat, 0.5), p95: quantile(lat, 0.95), max: Math.max(...lat), delivered: lat.length / (events.length * watchers.length) };
+}
+
+/**
+ * publish → commit at a steady offered load: `readingsPerS` readings a second over the site's
+ * probes, `batch` per message, for `seconds`; each reading is stamped with its publish time and
+ * the commit time is when the worker's post-commit live message names it (latestTopic).
+ * Returns p50 and p99 in ms.
+ */
+export async function commitLatency(mqttPort: number, site: ScaleSite, serviceAuth: { username: string; password: string },
+  o: { readingsPerS: number; batch: number; seconds: number; seqBase: number }): Promise<{ p50: number; p99: number; n: number }> {
+  const sub = await mqtt.connectAsync(`mqtt://127.0.0.1:${mqttPort}`, { ...serviceAuth, clientId: `ferrisight-lat-${o.seqBase}`, protocolVersion: 4, reconnectPeriod: 0 });
+  const lat: number[] = [];
+  sub.on('message', (topic, buf) => {
+    const at = Date.now();
+    for (const r of parseInternal(latestMessageSchema, topic, buf).readings) lat.push(at - Date.parse(r.ts));
+  });
+  await sub.subscribeAsync(latestTopic(site.tag), { qos: 0 });
+  const device = await connectDevice(mqttPort, site, `bench-lat-${site.tag}-${o.seqBase}`);
+  const tickMs = 50;
+  const perTick = (o.readingsPerS * tickMs) / 1000;
+  const started = Date.now();
+  let n = 0;
+  for (let k = 0; Date.now() - started < o.seconds * 1000; k += 1) {
+    const ts = new Date().toISOString();
+    for (let i = 0; i < perTick; i += o.batch) {
+      const readings = Array.from({ length: Math.min(o.batch, perTick - i) }, () => {
+        n += 1;
+        return { probe: site.probes[n % site.probes.length]!.tag, ts, orpMv: 420, tempC: 40, seq: o.seqBase + n };
+      });
+      void device.publishAsync(batchTopic(site.tag), JSON.stringify({ readings }), { qos: 1 });
+    }
+    const wait = started + (k + 1) * tickMs - Date.now();
+    if (wait > 0) await sleep(wait);
+  }
+  await sleep(2_000);
+  await device.endAsync();
+  await sub.endAsync();
+  return { p50: quantile(lat, 0.5), p99: quantile(lat, 0.99), n: lat.length };
 }

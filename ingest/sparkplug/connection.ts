@@ -53,12 +53,10 @@ export function startSparkplugHost(o: SparkplugHostOptions): RunningSparkplugHos
     protocolVersion: 4, clean: true, keepalive: 30, reconnectPeriod: 1_000, connectTimeout: 10_000, resubscribe: false,
     will: { topic: stateTopic, payload: Buffer.from(state(false)), qos: 1, retain: true },
   });
-  // Each reconnect is a new host session: a new timestamp in both the Will and the birth.
-  client.on('packetsend', (packet) => {
-    if (packet.cmd === 'connect' && packet.will) {
-      connectedAtMs = Date.now();
-      packet.will.payload = Buffer.from(state(false));
-    }
+  // Each reconnect is a new host session: a new timestamp in the next CONNECT's Will and in its birth.
+  client.on('close', () => {
+    connectedAtMs = Date.now();
+    if (client.options.will) client.options.will.payload = Buffer.from(state(false));
   });
 
   let subscribed: string[] = [];

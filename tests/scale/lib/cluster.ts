@@ -7,6 +7,7 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { startMosquitto } from '../../../scripts/lib/mosquitto.ts';
 import { startRedis } from '../../../scripts/lib/redis.ts';
 import { findFreePort } from '../../../scripts/lib/ports.ts';
 import { kill9, SERVICE_PASSWORD, spawnPart, startBrokerProcess, waitForPort, type Child } from '../../reliability/lib/procs.ts';
@@ -25,6 +26,12 @@ export type ClusterOptions = {
   /** No Redis with one API node unless asked: the single-node setup has none. */
   redis?: boolean;
   extraEnv?: NodeJS.ProcessEnv;
+  /** 'mosquitto': Debian's mosquitto 2 stands in for a site's broker and the workers share one subscription. */
+  broker?: 'embedded' | 'mosquitto';
+  /** mosquitto only: device accounts (password DEVICE_PASSWORD of the scale plant), each allowed its site's topics. */
+  devices?: { username: string; password: string; siteTag: string }[];
+  /** false: the workers wait for startWorker(i) (a benchmark measures the bare broker first). */
+  startWorkers?: boolean;
 };
 
 export type Cluster = {
@@ -46,7 +53,13 @@ export async function startCluster(o: ClusterOptions): Promise<Cluster> {
   const useRedis = o.redis ?? o.apiNodes > 1;
   const redis = useRedis ? await startRedis(path.join(dir, 'redis'), await findFreePort()) : undefined;
   const mqttPort = await findFreePort();
-  const broker = await startBrokerProcess({ port: mqttPort, dataDir: dir, databaseUrl: o.databaseUrl });
+  const mosquitto = o.broker === 'mosquitto'
+    ? await startMosquitto(path.join(dir, 'mosquitto'), mqttPort, [
+      { username: 'ferrisight-service', password: SERVICE_PASSWORD, write: ['#'], read: ['#'] },
+      ...(o.devices ?? []).map((d) => ({ username: d.username, password: d.password, write: [`ferrisight/v1/${d.siteTag}/#`], read: [] })),
+    ])
+    : null;
+  const broker = mosquitto ? null : await startBrokerProcess({ port: mqttPort, dataDir: dir, databaseUrl: o.databaseUrl });
   const common: NodeJS.ProcessEnv = {
     DATABASE_URL: o.databaseUrl, MQTT_URL: `mqtt://127.0.0.1:${mqttPort}`, SERVICE_MQTT_PASSWORD: SERVICE_PASSWORD,
     JWT_SECRET, FERRISIGHT_DATA_DIR: dir, LEASE_TTL_S: String(o.leaseTtlS ?? 3), WEB_DIST: path.join(dir, 'no-web'), ...o.extraEnv,
@@ -65,6 +78,7 @@ export async function startCluster(o: ClusterOptions): Promise<Cluster> {
     mqttPort, apiPorts, apiPids: apis.map((a) => a.pid), redisUrl: redis?.url, workers: [], notifiers: [],
     startWorker(i) {
       const slice = o.workers > 1 ? { INGEST_SLICE: `${i + 1}/${o.workers}`, INGEST_SLICE_BY: o.sliceBy ?? 'site' } : {};
+      if (mosquitto && o.workers > 1) Object.assign(slice, { INGEST_SHARED_GROUP: 'ferrisight-ingest' });
       const child = spawnPart('ingest/worker.ts', { ...common, INGEST_CLIENT_ID: 'ferrisight-ingest-scale', FERRISIGHT_PROC: `ingest${i + 1}`, ...slice });
       cluster.workers[i] = child;
       return child;
@@ -78,13 +92,14 @@ export async function startCluster(o: ClusterOptions): Promise<Cluster> {
       if (child) await kill9(child);
     },
     async close() {
-      const all = [...cluster.notifiers, ...cluster.workers, ...apis, broker].filter((c): c is Child => c !== null);
+      const all = [...cluster.notifiers, ...cluster.workers, ...apis, broker].filter((c): c is Child => c != null);
       await Promise.all(all.map((c) => kill9(c)));
       await redis?.stop();
+      await mosquitto?.stop();
       rmSync(dir, { recursive: true, force: true });
     },
   };
-  for (let i = 0; i < o.workers; i += 1) cluster.startWorker(i);
+  if (o.startWorkers !== false) for (let i = 0; i < o.workers; i += 1) cluster.startWorker(i);
   if (o.smtpPort) for (let i = 0; i < (o.notifiers ?? 0); i += 1) cluster.startNotifier(i);
   try {
     await Promise.all(apiPorts.map((port, k) => Promise.race([

@@ -14,7 +14,7 @@ import { readingTopic } from '../../../shared/schemas/readings.ts';
 import { addDevice, seedPlant } from '../../ingest/support.ts';
 import type { StreamProbe } from '../../reliability/lib/stream.ts';
 
-const DEVICE_PASSWORD = 'scale-device-password';
+export const DEVICE_PASSWORD = 'scale-device-password';
 const NOW = '2026-01-01 00:00:00.000';
 
 export type ScaleSite = { tag: string; probes: StreamProbe[]; device: string; waitLive(mqttPort: number): Promise<void> };
