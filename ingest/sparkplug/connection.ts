@@ -1,6 +1,6 @@
 import mqtt, { type MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
-import { offlineTopic } from '../../shared/schemas/internal-topics.ts';
+import { offlineTopic, type ProbesOffline } from '../../shared/schemas/internal-topics.ts';
 import {
   parseSparkplugTopic, sparkplugStateTopic, sparkplugTopic, type SparkplugState,
 } from '../../shared/schemas/sparkplug.ts';
@@ -127,7 +127,7 @@ export function startSparkplugHost(o: SparkplugHostOptions): RunningSparkplugHos
       client.publish(sparkplugTopic(r.rebirth.groupId, 'NCMD', r.rebirth.edgeNodeId), Buffer.from(encodeRebirth(receivedAtMs)), { qos: 0 });
     }
     for (const off of r.offline) {
-      if (off.probeIds.length) client.publish(offlineTopic(off.siteTag), JSON.stringify({ probeIds: off.probeIds, atMs: receivedAtMs }), { qos: 1 });
+      if (off.probeIds.length) client.publish(offlineTopic(off.siteTag), JSON.stringify({ probeIds: off.probeIds, atMs: receivedAtMs } satisfies ProbesOffline), { qos: 1 });
     }
     if (r.decoded.readings.length || r.decoded.rejections.length) {
       o.metrics.messages += 1;

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MqttClient } from 'mqtt';
 import { Bus } from '../../api/src/realtime/bus.ts';
 import { toTankLive } from '../../ingest/live.ts';
-import { INGEST_HEALTH_TOPIC, SIM_STATE_TOPIC, latestTopic } from '../../shared/schemas/internal-topics.ts';
+import { INGEST_HEALTH_TOPIC, SIM_STATE_TOPIC, latestTopic, offlineTopic, type ProbesOffline } from '../../shared/schemas/internal-topics.ts';
 import type { TankLive } from '../../shared/schemas/readings.ts';
 import { SERVICE_PASSWORD, connect, useBrokerRig, waitFor } from './support.ts';
 
@@ -14,10 +14,12 @@ const rig = useBrokerRig();
 let bus: Bus;
 let pub: MqttClient;
 const received: TankLive[][] = [];
+const offline: ProbesOffline[] = [];
 
 beforeAll(async () => {
   bus = new Bus(`mqtt://127.0.0.1:${rig.broker.port}`, 'ferrisight-service', SERVICE_PASSWORD, 'ferrisight-api-bus-test');
   bus.on('latest', (readings) => received.push(readings));
+  bus.on('offline', (o) => offline.push(o));
   await waitFor(async () => bus.connected);
   pub = await connect(rig.broker.port, { username: 'ferrisight-service', password: SERVICE_PASSWORD, clientId: 'ferrisight-bus-test-pub' });
 });
@@ -63,5 +65,15 @@ describe('internal bus', () => {
     await pub.publishAsync(INGEST_HEALTH_TOPIC, JSON.stringify({ ...good, messages: 6 }), { qos: 1 });
     await waitFor(async () => bus.ingestHealth?.messages === 6);
     expect(bus.simState).toEqual([{ fault: 'noisy', probeTag: 'A1-ORP', since: good.at }]);
+  });
+
+  it('when a probes-offline message does not fit its schema, then it is dropped and the next good one still arrives', async () => {
+    const atMs = Date.UTC(2026, 11, 1, 8);
+    // One connection delivers in order (QoS 1), so the good message after the bad ones is the only one passed on.
+    await pub.publishAsync(offlineTopic('kestrel'), JSON.stringify({ probeIds: ['A1-ORP'], atMs }), { qos: 1 });
+    await pub.publishAsync(offlineTopic('kestrel'), JSON.stringify({ probeIds: [7] }), { qos: 1 });
+    await pub.publishAsync(offlineTopic('kestrel'), JSON.stringify({ probeIds: [7, 8], atMs }), { qos: 1 });
+    await waitFor(async () => offline.length > 0);
+    expect(offline).toEqual([{ probeIds: [7, 8], atMs }]);
   });
 });

@@ -10,7 +10,7 @@ import { publishRefusal, subscribeRefusal } from '../../ingest/broker/acl.ts';
 import { startWorker, type RunningWorker } from '../../ingest/start-worker.ts';
 import { decodePayload } from '../../ingest/sparkplug/payload.ts';
 import { toSqlTs, type Pool } from '../../api/src/db/pool.ts';
-import { offlineTopic } from '../../shared/schemas/internal-topics.ts';
+import { offlineTopic, parseInternal, probesOfflineSchema, type ProbesOffline } from '../../shared/schemas/internal-topics.ts';
 import { sparkplugStateTopic } from '../../shared/schemas/sparkplug.ts';
 import { SERVICE_PASSWORD, addDevice, connect, seedPlant, useBrokerRig, waitFor } from './support.ts';
 
@@ -174,8 +174,9 @@ describe('Sparkplug B host', () => {
 
   it('when the node dies (NDEATH), then the worker announces its probes offline at once', async () => {
     const edge = edges[0]!;
-    const offline = new Promise<{ probeIds: number[]; atMs: number }>((resolve) => service.on('message', (t, p) => {
-      if (t === offlineTopic('kestrel')) resolve(JSON.parse(p.toString()));
+    // Parsed with the contract the API's bus reads it with.
+    const offline = new Promise<ProbesOffline>((resolve) => service.on('message', (t, p) => {
+      if (t === offlineTopic('kestrel')) resolve(parseInternal(probesOfflineSchema, t, p));
     }));
     await service.subscribeAsync(offlineTopic('kestrel'), { qos: 1 });
     const sentAt = Date.now();

@@ -1,5 +1,6 @@
 import type { SparkplugMapping } from '../../../../shared/schemas/sparkplug.ts';
-import { placeholders, toSqlTs, type Pool } from '../../db/pool.ts';
+import { placeholders, type Pool } from '../../db/pool.ts';
+import { toSqlTs } from '../../db/timestamps.ts';
 
 /** What the ingest worker's Sparkplug host reads and writes (raw pool, like the rest of the hot path). */
 export type HostEventRow = { atMs: number; groupId: string; edgeNodeId: string; deviceId: string; kind: string; detail: string };
