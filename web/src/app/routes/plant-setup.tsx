@@ -15,7 +15,7 @@ import { RoleGate } from './role-gate';
 const TABS = [
   { id: 'plant', label: 'Plant', admin: false },
   { id: 'dead-letters', label: 'Dead letters and conflicts', admin: false },
-  { id: 'sparkplug', label: 'Sparkplug edge nodes', admin: true },
+  { id: 'sparkplug', label: 'Sparkplug B edge nodes', admin: true },
   { id: 'people', label: 'People and services', admin: true },
 ] as const;
 
