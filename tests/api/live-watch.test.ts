@@ -5,6 +5,7 @@ import { QueryTypes } from 'sequelize';
 import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { attachRealtime } from '../../api/src/realtime/socket.ts';
+import type { ProbesOffline } from '../../shared/schemas/internal-topics.ts';
 import type { TankLive } from '../../shared/schemas/readings.ts';
 import type { ClientToServerEvents, ServerToClientEvents } from '../../shared/schemas/socket-events.ts';
 import { createTestApi, type TestApi } from '../helpers/api.ts';
@@ -14,7 +15,7 @@ let t: TestApi;
 let server: http.Server;
 let realtime: ReturnType<typeof attachRealtime>;
 let url: string;
-const source = new EventEmitter<{ latest: [TankLive[]] }>();
+const source = new EventEmitter<{ latest: [TankLive[]]; offline: [ProbesOffline] }>();
 const sockets: Socket[] = [];
 const tanks: { site: string; tankId: number; probeId: number; probeTag: string }[] = [];
 
@@ -44,8 +45,8 @@ afterAll(async () => {
   await t?.close();
 });
 
-async function screen(watch?: string[] | 'all'): Promise<{ sites: Set<string>; tanks: Set<number> }> {
-  const seen = { sites: new Set<string>(), tanks: new Set<number>() };
+async function screen(watch?: string[] | 'all'): Promise<{ sites: Set<string>; tanks: Set<number>; staleProbes: Set<number> }> {
+  const seen = { sites: new Set<string>(), tanks: new Set<number>(), staleProbes: new Set<number>() };
   const socket: Socket<ServerToClientEvents, ClientToServerEvents> = connect(url, { transports: ['websocket'], reconnection: false, auth: { token: t.cookies.operator.split('=').slice(1).join('=') } });
   sockets.push(socket);
   socket.on('tank:latest', (readings) => {
@@ -53,6 +54,9 @@ async function screen(watch?: string[] | 'all'): Promise<{ sites: Set<string>; t
       seen.tanks.add(r.tankId);
       seen.sites.add(tanks.find((x) => x.tankId === r.tankId)!.site);
     }
+  });
+  socket.on('probe:freshness', (f) => {
+    if (f.stale) seen.staleProbes.add(f.probeId);
   });
   await new Promise<void>((resolve, reject) => {
     socket.once('connect', () => resolve());
@@ -106,5 +110,19 @@ describe('live values per watched site', () => {
     await until(() => s.tanks.size >= 1);
     await new Promise((r) => setTimeout(r, 300));
     expect([...s.sites]).toEqual(['second']);
+  });
+
+  it('when a source announces probes offline (a Sparkplug death), then their staleness goes to screens watching that site or all sites, and no other', async () => {
+    const second = tanks.find((x) => x.site === 'second')!;
+    const otherSite = tanks.find((x) => x.site !== 'second')!.site;
+    const one = await screen(['second']);
+    const all = await screen('all');
+    const other = await screen([otherSite]);
+    await new Promise((r) => setTimeout(r, 300));
+    // Dated after every reading the earlier cases sent (some ahead of now), so only the death makes it stale.
+    source.emit('offline', { probeIds: [second.probeId], atMs: Date.now() + 60_000 });
+    await until(() => one.staleProbes.has(second.probeId) && all.staleProbes.has(second.probeId));
+    await new Promise((r) => setTimeout(r, 300));
+    expect(other.staleProbes.has(second.probeId)).toBe(false);
   });
 });
