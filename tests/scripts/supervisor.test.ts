@@ -24,7 +24,7 @@ async function startPlant(): Promise<Plant> {
   while (ports.size < 4) ports.add(await findFreePort());
   const [PORT, DB_PORT, MQTT_PORT, SMTP_PORT] = [...ports].map(String);
   const env: NodeJS.ProcessEnv = Object.fromEntries(KEEP.filter((k) => process.env[k]).map((k) => [k, process.env[k]]));
-  Object.assign(env, { PORT, DB_PORT, MQTT_PORT, SMTP_PORT, SIMULATOR: 'off', DEMO_HISTORY: 'off', FERRISIGHT_DATA_DIR: path.relative(ROOT, DIR), LOG_LEVEL: 'warn' });
+  Object.assign(env, { PORT, DB_PORT, MQTT_PORT, SMTP_PORT, SIMULATOR: 'off', DEMO_HISTORY: 'off', DEMO: 'on', FERRISIGHT_DATA_DIR: path.relative(ROOT, DIR), LOG_LEVEL: 'warn' });
   // Its own process group, like a service manager's unit: the test signals one PID only.
   const npm = spawn('npm', ['start'], { cwd: ROOT, env, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
   const log: string[] = [];

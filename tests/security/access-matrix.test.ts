@@ -18,9 +18,27 @@ import { attachRealtime } from '../../api/src/realtime/socket.ts';
 import { ROLES, type Role } from '../../shared/schemas/auth.ts';
 import { createTestApi, TEST_SECRET, type TestApi } from '../helpers/api.ts';
 
-/** Client → server socket events and who may use them; every signed-in role sees every alarm. */
-const SOCKET_EVENTS: Record<string, { allowed: readonly Role[]; args: unknown[] }> = {
-  'alarm:since': { allowed: ROLES, args: [0] },
+/**
+ * Client → server socket events and who may use them; every signed-in role sees every alarm and
+ * every site's live values. `served` tells whether the server acted on the event.
+ */
+type Served = (client: Socket, serverRooms: () => Set<string>) => Promise<boolean>;
+const answered: Served = (client) =>
+  new Promise<boolean>((resolve) => {
+    client.once('alarm:event', () => resolve(true));
+    setTimeout(() => resolve(false), 3_000);
+  });
+const SOCKET_EVENTS: Record<string, { allowed: readonly Role[]; args: unknown[]; served: Served }> = {
+  'alarm:since': { allowed: ROLES, args: [0], served: answered },
+  // A watch of one site moves the socket from every site's live room to that site's.
+  'live:watch': {
+    allowed: ROLES,
+    args: [{ sites: ['kestrel'] }],
+    served: async (_client, rooms) => {
+      for (let i = 0; i < 60 && rooms().has('live:*'); i += 1) await new Promise((r) => setTimeout(r, 50));
+      return !rooms().has('live:*');
+    },
+  },
 };
 
 let t: TestApi;
@@ -94,10 +112,9 @@ describe('socket events × roles', () => {
       const allowed = rule.allowed.includes(role);
       it(`when ${role} emits ${event}, then it is ${allowed ? 'served' : 'refused'}`, async () => {
         const s = (await connect(role)) as Socket;
-        const got = new Promise<boolean>((resolve) => {
-          s.once('alarm:event', () => resolve(true));
-          setTimeout(() => resolve(false), 3_000);
-        });
+        await new Promise((r) => setTimeout(r, 200));
+        const rooms = () => realtime.io.sockets.sockets.get(s.id!)?.rooms ?? new Set<string>();
+        const got = rule.served(s, rooms);
         s.emit(event, ...rule.args);
         expect(await got).toBe(allowed);
       });

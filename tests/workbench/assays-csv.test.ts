@@ -103,7 +103,7 @@ describe('assay CSV upload', () => {
   it('when the template is downloaded, then it is CSV with the columns the upload expects', async () => {
     const res = await as(t, 'operator').get('/api/assays/template.csv');
     expect(res.headers['content-type']).toMatch(/text\/csv/);
-    expect(res.text.split('\n')[0]).toBe(HEADER);
+    expect(res.text.split(/\r?\n/)[0]).toBe(HEADER);
   });
 
   it('when a file of 10 000 rows is previewed and committed, then both take a few seconds at most', async () => {
