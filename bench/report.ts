@@ -10,6 +10,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { runCommand } from '../scripts/lib/proc.ts';
+import { otherSections } from './lib/results.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const BENCHES = ['ingest', 'alarms', 'trend'] as const;
@@ -74,6 +75,8 @@ const md = [
   `| out-of-band reading → alarm at socket.io p99, ms | ${num(get(alarms, 'toClient.p99'))} | | | < 1,000 |`,
   '',
   ...runs.flatMap((r) => [`## bench:${r.name} (${r.seconds.toFixed(0)} s${r.code === 0 ? '' : `, EXIT ${r.code}`})`, '```', ...r.lines, '```', '']),
+  // Benchmarks run on their own (bench:fanout, bench:floor…) keep their latest section.
+  ...otherSections(ROOT, BENCHES),
 ].join('\n');
 const file = path.join(ROOT, 'bench/results/latest.md');
 writeFileSync(`${file}.tmp`, md);
