@@ -99,15 +99,16 @@ export type OxidantForm = {
   source: string;
 };
 
-// Densities of H₂O₂ solutions at 20 °C; the O₂ content of dry air. Pure MnO₂ ore grades vary too
+// Densities of H₂O₂ solutions at 20 °C (recalled, not yet checked against a published table: the
+// screen calls them typical and asks for the supplier's figure); the O₂ content of dry air. Pure MnO₂ ore grades vary too
 // much to tabulate: the advisor gives its mass only.
 export const OXIDANT_FORMS: OxidantForm[] = [
   { id: 'h2o2-35', oxidant: 'h2o2', label: 'H₂O₂ 35 % w/w', massFraction: 0.35, kind: 'liquid', densityKgPerL: 1.132,
-    source: 'density 1.132 kg/L at 20 °C (CRC Handbook of Chemistry and Physics, concentrative properties of aqueous solutions)' },
+    source: 'density 1.132 kg/L at 20 °C (typical; use the density on your supplier’s data sheet)' },
   { id: 'h2o2-50', oxidant: 'h2o2', label: 'H₂O₂ 50 % w/w', massFraction: 0.5, kind: 'liquid', densityKgPerL: 1.196,
-    source: 'density 1.196 kg/L at 20 °C (CRC Handbook of Chemistry and Physics, concentrative properties of aqueous solutions)' },
+    source: 'density 1.196 kg/L at 20 °C (typical; use the density on your supplier’s data sheet)' },
   { id: 'h2o2-70', oxidant: 'h2o2', label: 'H₂O₂ 70 % w/w', massFraction: 0.7, kind: 'liquid', densityKgPerL: 1.29,
-    source: 'density 1.29 kg/L at 20 °C (CRC Handbook of Chemistry and Physics, concentrative properties of aqueous solutions)' },
+    source: 'density 1.29 kg/L at 20 °C (typical; use the density on your supplier’s data sheet)' },
   { id: 'air', oxidant: 'o2', label: 'Air', massFraction: 1, kind: 'gas', o2MoleFraction: 0.2095,
     source: 'O₂ is 20.95 % by volume of dry air (U.S. Standard Atmosphere, 1976)' },
   { id: 'o2', oxidant: 'o2', label: 'Oxygen (pure)', massFraction: 1, kind: 'gas', o2MoleFraction: 1, source: 'pure O₂' },
