@@ -12,6 +12,7 @@ import { startIntake, type AckMode, type Intake } from './mqtt-intake.ts';
 import { ProbeCache } from '../api/src/modules/readings/probe-cache.ts';
 import { deleteExpiredReadings, deleteExpiredRefusals } from '../api/src/modules/readings/retention.repository.ts';
 import { Lease } from '../api/src/cluster/lease.ts';
+import { systemAlarmsRepository } from '../api/src/modules/system-alarms/system-alarms.repository.ts';
 import { loadTags, SliceSubscriptions, type SlicePlan } from './slices.ts';
 import { startSparkplugHost } from './sparkplug/connection.ts';
 
@@ -33,6 +34,8 @@ export type WorkerOptions = {
   flushConcurrency?: number;
   cacheRefreshMs?: number;
   healthIntervalMs?: number;
+  /** How often the worker beats its liveness row while it can take readings (the notifier's "ingest stopped" watch). */
+  heartbeatMs?: number;
   retentionIntervalMs?: number;
   /** This worker's share of the device topics (README "Scaling out"); unset: all of topicFilter. */
   slice?: SlicePlan | null;
@@ -117,6 +120,17 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
     log.info(snap, 'ingest health');
     if (intake.client.connected) intake.client.publish(INGEST_HEALTH_TOPIC, JSON.stringify(snap), { qos: 0, retain: true });
   };
+  // Beats only while connected to the broker, and only if the database takes the write: both are needed to store readings.
+  let firstBeat = true;
+  const heartbeat = async () => {
+    if (!intake.client.connected) return;
+    try {
+      await systemAlarmsRepository.beat(db.sequelize, opts.clientId, firstBeat);
+      firstBeat = false;
+    } catch (err) {
+      log.warn({ err: (err as Error).message }, 'heartbeat not written');
+    }
+  };
   let retentionRunning = false;
   const retention = async () => {
     if (retentionRunning || (retentionLease && !retentionLease.held)) return;
@@ -129,9 +143,11 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const timers = [
     setInterval(refresh, opts.cacheRefreshMs ?? 10_000),
     setInterval(health, opts.healthIntervalMs ?? 30_000),
+    setInterval(heartbeat, opts.heartbeatMs ?? 5_000),
     setInterval(retention, opts.retentionIntervalMs ?? 3_600_000),
     setTimeout(retention, 60_000),
   ];
+  void intake.subscribed.then(heartbeat, () => undefined);
 
   return {
     metrics,
@@ -147,6 +163,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
       await Promise.race([intake.client.endAsync(false), new Promise((r) => setTimeout(r, 2_000))]);
       if (!intake.client.disconnected) await intake.client.endAsync(true).catch(() => undefined);
       await alarms.drain();
+      await systemAlarmsRepository.stopped(db.sequelize, opts.clientId).catch(() => undefined);
       await db.close().catch(() => undefined);
     },
   };

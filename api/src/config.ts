@@ -74,6 +74,11 @@ const schema = z.object({
   DATABASE_READ_URL: z.string().regex(/^mariadb:\/\//, 'must start with mariadb://').optional(),
   /** Jobs that run once per cluster (escalation, timers, retention, alarm broadcast) move to another process within this. */
   LEASE_TTL_S: z.coerce.number().int().min(2).max(300).default(15),
+  /**
+   * The notifier raises "ingest stopped" when an ingest worker has not beaten its heartbeat for
+   * this long, or keeps being restarted; it clears once every worker has run this long again.
+   */
+  INGEST_STOPPED_AFTER_S: z.coerce.number().int().min(10).max(600).default(20),
 });
 
 export type Config = z.infer<typeof schema>;

@@ -87,7 +87,7 @@ export class PartSupervisor {
     const now = new Date().toISOString();
     const r: Running = {
       spec, restarts: [], streak: 0, startedAt: Date.now(),
-      state: { name: spec.name, state: 'running', pid: null, restarts: 0, restartsLastHour: 0, lastExit: null, nextStartAt: null, since: now },
+      state: { name: spec.name, state: 'running', pid: null, restarts: 0, restartsLastHour: 0, lastExit: null, exitsInRow: 0, nextStartAt: null, since: now },
     };
     this.parts.push(r);
     this.launch(r);
@@ -122,6 +122,7 @@ export class PartSupervisor {
         r.restarts = r.restarts.filter((t) => now - t < 3_600_000);
         r.restarts.push(now);
         r.state.restarts += 1;
+        r.state.exitsInRow = r.streak;
         const delay = restartDelayMs(r.streak);
         Object.assign(r.state, { state: 'restarting', nextStartAt: new Date(now + delay).toISOString(), since: new Date(now).toISOString() });
         this.log(`${r.spec.name} exited unexpectedly (${how}); restarting in ${delay / 1000} s${r.streak > 1 ? ` (${r.streak} exits in a row)` : ''}`);
@@ -142,6 +143,8 @@ export class PartSupervisor {
     for (const r of [...this.parts].reverse()) {
       if (r.restartTimer) clearTimeout(r.restartTimer);
       r.state.state = 'stopped';
+      // Recorded before it goes, so a watcher reading the run file sees a stop, not a silent part.
+      this.onChange();
       const child = r.child;
       if (!child || child.exitCode !== null || child.signalCode !== null) continue;
       killGroup(child, 'SIGTERM');

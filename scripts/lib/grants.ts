@@ -38,7 +38,7 @@ export const READ_WRITE_TABLES = [
   'users', 'sites', 'circuits', 'tanks', 'probes', 'devices', 'readings', 'rollups_1m', 'rollups_1h',
   'alarm_definitions', 'alarm_instances', 'alarm_event_order', 'alarm_inputs', 'roster_shifts', 'escalation_steps',
   'mail_outbox', 'alarm_ack_links', 'site_settings', 'assays', 'probe_check_schedules', 'shifts', 'shift_log_entries',
-  'import_jobs', 'leases', 'setup_tokens', 'rate_limit_hits', 'sparkplug_groups', 'sparkplug_metrics',
+  'import_jobs', 'leases', 'setup_tokens', 'rate_limit_hits', 'sparkplug_groups', 'sparkplug_metrics', 'ingest_heartbeats',
 ] as const;
 
 export type TablePrivileges = { table: string; privileges: string };

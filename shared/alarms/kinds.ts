@@ -2,18 +2,26 @@
  * Alarm definition kinds: what each one measures, in which unit, which way it trips and which
  * part of the system evaluates it. Shared so the Alarm desk labels match the engine exactly.
  */
-export const ALARM_KINDS = [
+export const TANK_ALARM_KINDS = [
   'ratio-below-band', 'ratio-above-band', 'orp-low', 'orp-high', 'temp-low', 'temp-high', 'orp-rate',
   'stale', 'probe-flatline', 'probe-noisy', 'calibration-drift', 'probe-check-overdue',
 ] as const;
+export type TankAlarmKind = (typeof TANK_ALARM_KINDS)[number];
+/**
+ * Alarms about Ferrisight itself, one per plant and belonging to no tank: defined by a migration,
+ * raised and cleared by the notifier's watch, acknowledged and escalated like any other.
+ */
+export const PLANT_ALARM_KINDS = ['ingest-stopped'] as const;
+export type PlantAlarmKind = (typeof PLANT_ALARM_KINDS)[number];
+export const ALARM_KINDS = [...TANK_ALARM_KINDS, ...PLANT_ALARM_KINDS] as const;
 export type AlarmKind = (typeof ALARM_KINDS)[number];
 
 /**
  * reading: evaluated as readings arrive (ingest path); timer: evaluated by the engine's tick
  * (no reading arrives when a probe goes quiet); input: a value fed by another feature
- * (assays → calibration drift), picked up by the tick.
+ * (assays → calibration drift), picked up by the tick; plant: a plant-wide alarm (no tank).
  */
-export type KindSource = 'reading' | 'timer' | 'input';
+export type KindSource = 'reading' | 'timer' | 'input' | 'plant';
 
 export type KindInfo = {
   label: string;
@@ -43,10 +51,12 @@ export const KIND_INFO: Record<AlarmKind, KindInfo> = {
   'probe-noisy': { label: 'Probe noisy', direction: 'high', source: 'reading', unit: 'mV spread', deadbandUnit: 'mV', limitFrom: 'threshold', windowed: true },
   'calibration-drift': { label: 'Probe disagrees with assay', direction: 'high', source: 'input', unit: 'mV', deadbandUnit: 'mV', limitFrom: 'threshold', windowed: false },
   'probe-check-overdue': { label: 'Probe check overdue', direction: 'high', source: 'timer', unit: 'h past due', deadbandUnit: 'h', limitFrom: 'threshold', windowed: false },
+  'ingest-stopped': { label: 'Ingest stopped: readings are not being stored', direction: 'high', source: 'plant', unit: 's', deadbandUnit: 's', limitFrom: 'threshold', windowed: false },
 };
 
 export const READING_KINDS = ALARM_KINDS.filter((k) => KIND_INFO[k].source === 'reading');
-export const TICK_KINDS = ALARM_KINDS.filter((k) => KIND_INFO[k].source !== 'reading');
+export const TICK_KINDS = ALARM_KINDS.filter((k) => KIND_INFO[k].source === 'timer' || KIND_INFO[k].source === 'input');
+export const isPlantKind = (k: AlarmKind): k is PlantAlarmKind => KIND_INFO[k].source === 'plant';
 
 export const PRIORITIES = [1, 2, 3] as const;
 export type Priority = (typeof PRIORITIES)[number];

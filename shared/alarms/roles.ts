@@ -13,6 +13,9 @@ export const SERVICE_ROLES: readonly Role[] = ['metallurgist', 'admin'];
 
 export type ShelveRule = { operatorsMayShelve: number; maxShelveHours: number };
 
+/** A plant-wide alarm has no site whose setting applies: operators may not shelve it, and the 12 h ceiling holds. */
+export const PLANT_SHELVE_RULE: ShelveRule = { operatorsMayShelve: 0, maxShelveHours: 12 };
+
 export function mayShelve(role: Role, rule: Pick<ShelveRule, 'operatorsMayShelve'>): boolean {
   return SHELVE_ALWAYS.includes(role) || (role === 'operator' && rule.operatorsMayShelve === 1);
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ALARM_KINDS, KIND_INFO, PRIORITIES, type AlarmKind, type Priority } from '../alarms/kinds.ts';
+import { ALARM_KINDS, KIND_INFO, TANK_ALARM_KINDS, PRIORITIES, type AlarmKind, type Priority } from '../alarms/kinds.ts';
 import { ALARM_HOW, ALARM_STATES, MAX_SHELVE_MIN, type AlarmState } from '../alarms/states.ts';
 
 /** Alarm definitions, lifecycle actions and views: used by the API, the engine and the Alarm desk forms. */
@@ -31,11 +31,11 @@ function checkKindFields(v: { kind: AlarmKind; threshold?: number | null; window
   if (info.windowed && v.windowS == null) ctx.addIssue({ code: 'custom', path: ['windowS'], message: `${info.label} needs a window` });
 }
 
-export const definitionSettingsSchema = z.object({ kind: z.enum(ALARM_KINDS), ...settingsShape }).superRefine(checkKindFields);
+export const definitionSettingsSchema = z.object({ kind: z.enum(TANK_ALARM_KINDS), ...settingsShape }).superRefine(checkKindFields);
 export type DefinitionSettings = z.infer<typeof definitionSettingsSchema>;
 
 export const createDefinitionSchema = z
-  .object({ tankId: z.number().int().positive(), kind: z.enum(ALARM_KINDS), ...settingsShape, reason })
+  .object({ tankId: z.number().int().positive(), kind: z.enum(TANK_ALARM_KINDS), ...settingsShape, reason })
   .superRefine(checkKindFields);
 export type CreateDefinitionInput = z.infer<typeof createDefinitionSchema>;
 
@@ -113,9 +113,10 @@ export type DefinitionView = DefinitionSettings & {
   limit: number | null; updatedAt: string;
 };
 
+/** Tank, circuit and site are null for a plant-wide alarm (PLANT_ALARM_KINDS). */
 export type AlarmView = {
   id: number; definitionId: number; kind: AlarmKind; label: string; priority: Priority; unit: string;
-  tankId: number; tankTag: string; tankName: string; circuitId: number; circuitTag: string; siteTag: string;
+  tankId: number | null; tankTag: string | null; tankName: string | null; circuitId: number | null; circuitTag: string | null; siteTag: string | null;
   state: AlarmState; conditionActive: boolean;
   openedAt: string; activatedAt: string | null; unackSince: string | null; closedAt: string | null;
   ackedAt: string | null; ackedBy: string | null;
@@ -126,8 +127,9 @@ export type AlarmView = {
 
 /** One alarm lifecycle event as screens get it (socket.io `alarm:event` and the events list). */
 export const alarmEventViewSchema = z.object({
-  id: z.number().int().positive(), instanceId: z.number().int(), definitionId: z.number().int(), tankId: z.number().int(),
-  tankTag: z.string(), siteTag: z.string(),
+  id: z.number().int().positive(), instanceId: z.number().int(), definitionId: z.number().int(),
+  /** null for a plant-wide alarm. */
+  tankId: z.number().int().nullable(), tankTag: z.string().nullable(), siteTag: z.string().nullable(),
   alarmKind: z.enum(ALARM_KINDS), priority: z.literal(PRIORITIES), kind: z.string(),
   fromState: z.enum(ALARM_STATES), toState: z.enum(ALARM_STATES),
   conditionActive: z.boolean(), at: z.string(), byUserId: z.number().int().nullable(), byName: z.string().nullable(), how: z.enum(ALARM_HOW),

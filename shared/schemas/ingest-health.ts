@@ -53,6 +53,8 @@ export const partStateSchema = z.object({
   restarts: z.number().int().min(0),
   restartsLastHour: z.number().int().min(0),
   lastExit: z.object({ at: z.string(), how: z.string().max(200) }).nullable(),
+  /** Unexpected exits in a row without a minute's stable run in between (absent from older supervisors). */
+  exitsInRow: z.number().int().min(0).optional(),
   /** When a part that is restarting will be started again (the back-off grows while it keeps crashing). */
   nextStartAt: z.string().nullable(),
   since: z.string(),
@@ -61,3 +63,8 @@ export type PartState = z.infer<typeof partStateSchema>;
 
 /** The part of the supervisor's run file the API reads. */
 export const supervisorRunFileSchema = z.object({ pid: z.number().int(), states: z.array(partStateSchema).default([]) });
+
+/** Each ingest worker's heartbeat as the database last saw it (the "ingest stopped" alarm's input). */
+export type WorkerBeatView = { worker: string; beatAgeMs: number; upMs: number; stopped: boolean };
+/** The plant-wide "ingest stopped" alarm: its open instance (null when none) and whether the condition holds. */
+export type IngestAlarmView = { instanceId: number | null; state: string | null; conditionActive: boolean };

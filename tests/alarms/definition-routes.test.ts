@@ -5,7 +5,7 @@
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ALARM_KINDS } from '../../shared/alarms/kinds.ts';
+import { TANK_ALARM_KINDS } from '../../shared/alarms/kinds.ts';
 import { CIRCUIT_TEMPLATES } from '../../shared/alarms/templates.ts';
 import type { Role } from '../../shared/schemas/auth.ts';
 import { createAlarmTestApi, onlyDefinition, type AlarmTestApi } from './helpers.ts';
@@ -63,7 +63,7 @@ describe('Alarm definition routes', () => {
     const res = await get('/api/alarms/templates', 'engineer');
     expect(res.status).toBe(200);
     expect(res.body.templates.map((x: { id: string }) => x.id)).toEqual(CIRCUIT_TEMPLATES.map((x) => x.id));
-    for (const template of res.body.templates) expect(template.definitions.map((d: { kind: string }) => d.kind).sort()).toEqual([...ALARM_KINDS].sort());
+    for (const template of res.body.templates) expect(template.definitions.map((d: { kind: string }) => d.kind).sort()).toEqual([...TANK_ALARM_KINDS].sort());
   });
 
   it('when a template is applied, then only the missing definitions are created, the reason is audited, and a second run creates none', async () => {
@@ -79,7 +79,7 @@ describe('Alarm definition routes', () => {
     const res = await send('post', '/api/alarms/templates/apply', 'metallurgist', { templateId, tankIds: [tank], reason: 'Probe alarms restored' });
     expect(res.status).toBe(201);
     expect(res.body.created).toHaveLength(2);
-    expect(await kindsOf(tank)).toEqual([...ALARM_KINDS].sort());
+    expect(await kindsOf(tank)).toEqual([...TANK_ALARM_KINDS].sort());
     const [audit] = await t.sequelize.query<{ reason: string; user_id: number; entity_id: string }>(
       "SELECT reason, user_id, entity_id FROM audit_log WHERE action = 'alarm-definition.apply-template' ORDER BY id DESC LIMIT 1", { type: QueryTypes.SELECT });
     expect(audit).toEqual({ reason: 'Probe alarms restored', user_id: t.users.metallurgist, entity_id: templateId });

@@ -19,6 +19,9 @@ import type { RealtimeServer, RealtimeSocket } from './realtime-types.ts';
  * successor resumes from the holder's saved position. Replays stay per node, from the table.
  */
 export const REPLAY_MAX = 2000;
+/** Every signed-in screen: plant-wide alarms (no tank, no site) go here. */
+export const PLANT_ALARM_ROOM = 'alarms:plant';
+const roomOf = (siteTag: string | null) => (siteTag === null ? PLANT_ALARM_ROOM : `site:${siteTag}`);
 const POLL_MS = 100;
 const REPLAY_INTERVAL_MS = 1000;
 
@@ -38,7 +41,7 @@ export function attachAlarmFeed(io: RealtimeServer, opts: { pollMs?: number; lea
       last ??= await alarmsRepository.lastEventId();
       const events = await alarmsRepository.eventsAfter(last, 500);
       for (const e of events) {
-        io.to(`site:${e.siteTag}`).emit('alarm:event', e);
+        io.to(roomOf(e.siteTag)).emit('alarm:event', e);
         last = e.id;
       }
       if (events.length && opts.lease) await opts.lease.saveProgress(last);
@@ -54,7 +57,7 @@ export function attachAlarmFeed(io: RealtimeServer, opts: { pollMs?: number; lea
   /** Joins the site rooms before reading, so nothing falls between the replay and the live feed. */
   const replay = async (socket: RealtimeSocket, after: number) => {
     const sites = await alarmsRepository.siteTags();
-    await Promise.all(sites.map((tag) => socket.join(`site:${tag}`)));
+    await Promise.all([...sites.map((tag) => socket.join(`site:${tag}`)), socket.join(PLANT_ALARM_ROOM)]);
     const events = await alarmsRepository.eventsAfter(after, REPLAY_MAX + 1);
     if (events.length > REPLAY_MAX) return void socket.emit('alarm:resync', { lastEventId: events[events.length - 1].id });
     for (const e of events) socket.emit('alarm:event', e);

@@ -10,7 +10,7 @@ import type { AuthService } from '../modules/auth/auth.service.ts';
 import { SESSION_COOKIE } from '../modules/auth/tokens.ts';
 import { plantRepository } from '../modules/plant/plant.repository.ts';
 import type { TankLive } from '../../../shared/schemas/readings.ts';
-import { attachAlarmFeed } from './alarm-feed.ts';
+import { attachAlarmFeed, PLANT_ALARM_ROOM } from './alarm-feed.ts';
 import { LiveFeed } from './live-feed.ts';
 import type { RealtimeServer } from './realtime-types.ts';
 
@@ -79,6 +79,7 @@ export function attachRealtime(httpServer: HttpServer, auth: AuthService, bus?: 
   io.on('connection', async (socket) => {
     const { user } = socket.data;
     socket.join(`user:${user.id}`);
+    socket.join(PLANT_ALARM_ROOM);
     // Registered first: a screen may say what it watches before the site list below has loaded.
     let watching: Promise<void> = Promise.resolve();
     let told = false;

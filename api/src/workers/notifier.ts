@@ -1,6 +1,7 @@
 /**
  * Notifier process: the alarm engine's timer (stale probes, shelve expiry, offline suppression,
- * probe-check and calibration-drift alarms) and e-mail escalation from the outbox.
+ * probe-check and calibration-drift alarms), the plant-wide "ingest stopped" alarm (it outlives
+ * the worker it watches) and e-mail escalation from the outbox.
  *   node --import tsx api/src/workers/notifier.ts
  * Env (api/src/config.ts): DATABASE_URL, SMTP_URL, MAIL_FROM, PUBLIC_URL (default
  * http://127.0.0.1:PORT), JWT_SECRET (signs the acknowledge links).
@@ -19,6 +20,8 @@ import { probeChecksService } from '../modules/probe-checks/probe-checks.service
 import { createNotifier } from '../modules/notify/notifier.ts';
 import { createIngestPool } from '../db/pool.ts';
 import { Lease } from '../cluster/lease.ts';
+import { supervisedParts } from '../modules/admin/supervisor-status.ts';
+import { createIngestWatch } from '../modules/system-alarms/ingest-watch.service.ts';
 
 const TICK_MS = 5_000;
 const MAIL_MS = 2_000;
@@ -49,6 +52,7 @@ async function main(): Promise<void> {
     sequelize, smtpUrl: cfg.SMTP_URL, mailFrom: cfg.MAIL_FROM, ackSecret: cfg.JWT_SECRET,
     publicUrl: cfg.PUBLIC_URL ?? `http://127.0.0.1:${cfg.PORT}`,
   });
+  const ingestWatch = createIngestWatch({ sequelize, thresholdS: cfg.INGEST_STOPPED_AFTER_S, parts: () => supervisedParts(cfg.FERRISIGHT_DATA_DIR) });
   logger.info({ smtp: cfg.SMTP_URL.replace(/\/\/[^@/]*@/, '//***@') }, 'notifier running');
   const leasePool = createIngestPool(cfg.DATABASE_URL, 1);
   const lease = new Lease(leasePool, 'notifier', { ttlMs: cfg.LEASE_TTL_S * 1000 }).start();
@@ -63,9 +67,14 @@ async function main(): Promise<void> {
         if (!lease.held) {
           // Standing by: another notifier holds the lease.
           lastTick = 0;
-        } else if (started - lastTick >= TICK_MS) {
-          lastTick = started;
-          await engine.tick();
+          ingestWatch.reset();
+        } else {
+          if (started - lastTick >= TICK_MS) {
+            lastTick = started;
+            await engine.tick();
+          }
+          const w = await ingestWatch.check();
+          if (w.changed) logger.warn({ why: w.verdict.why || undefined }, `ingest-stopped alarm ${w.changed}`);
         }
         const r = lease.held ? await notifier.runOnce() : undefined;
         if (r && (r.queued || r.sent || r.failed || r.cancelled)) logger.info(r, 'escalation pass');

@@ -20,6 +20,9 @@ export const SCREENS = {
   setup: { path: '/plant-setup', name: 'Plant setup', roles: ['admin', 'engineer'], built: true },
 } as const satisfies Record<string, Screen>;
 
+/** Plant setup's ingest health panel (workers' heartbeats, parts and restarts): admins only, like its API. */
+export const PLANT_HEALTH_PATH = `${SCREENS.setup.path}?tab=people#ingest-health`;
+
 export function canOpen(role: Role | undefined, screen: Screen): boolean {
   return !!role && screen.roles.includes(role);
 }

@@ -5,6 +5,8 @@ import { body } from '../../middleware/validate.ts';
 import type { Bus } from '../../realtime/bus.ts';
 import { simCommandSchema } from '../../../../shared/schemas/simulator.ts';
 import { supervisedParts } from './supervisor-status.ts';
+import { Site } from '../../db/models.ts';
+import { ingestWatchView } from '../system-alarms/ingest-watch.service.ts';
 
 /** Admin-only: simulator faults for demos and training, ingest health. */
 export function adminRouter(bus?: Bus, dataDir = '.data'): Router {
@@ -24,8 +26,8 @@ export function adminRouter(bus?: Bus, dataDir = '.data'): Router {
   });
   r.get('/ingest-health', async (_req, res) => {
     // null until the worker (the embedded broker) has published its first snapshot.
-    const parts = await supervisedParts(dataDir);
-    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null, parts });
+    const [parts, watch] = await Promise.all([supervisedParts(dataDir), ingestWatchView(Site.sequelize!)]);
+    res.json({ health: bus?.ingestHealth ?? null, broker: bus?.brokerHealth ?? null, parts, ...watch });
   });
   return r;
 }

@@ -7,23 +7,23 @@ import { toAlarmView, toEventView, type EventRow, type InstanceRow } from './vie
 
 /** Read side of alarms for the API (the write side is lifecycle.repository.ts). Raw SQL, plain objects out. */
 
-/** An alarm instance with its definition, tank, circuit and site (rows: InstanceRow). */
+/** An alarm instance with its definition, tank, circuit and site (rows: InstanceRow); a plant-wide alarm has none. */
 export const INSTANCE_SELECT = `SELECT i.*, d.kind, d.cause, d.consequence, d.action, d.response_min,
     t.tag AS tank_tag, t.name AS tank_name, c.id AS circuit_id, c.tag AS circuit_tag, s.tag AS site_tag
   FROM alarm_instances i
   JOIN alarm_definitions d ON d.id = i.definition_id
-  JOIN tanks t ON t.id = i.tank_id
-  JOIN circuits c ON c.id = t.circuit_id
-  JOIN sites s ON s.id = c.site_id`;
+  LEFT JOIN tanks t ON t.id = i.tank_id
+  LEFT JOIN circuits c ON c.id = t.circuit_id
+  LEFT JOIN sites s ON s.id = c.site_id`;
 
 /** An alarm event with its alarm's kind, priority, tank and site (rows: EventRow). */
 export const EVENT_SELECT = `SELECT e.*, d.kind AS alarm_kind, i.priority, t.tag AS tank_tag, s.tag AS site_tag
   FROM alarm_events e
   JOIN alarm_instances i ON i.id = e.instance_id
   JOIN alarm_definitions d ON d.id = e.definition_id
-  JOIN tanks t ON t.id = e.tank_id
-  JOIN circuits c ON c.id = t.circuit_id
-  JOIN sites s ON s.id = c.site_id`;
+  LEFT JOIN tanks t ON t.id = e.tank_id
+  LEFT JOIN circuits c ON c.id = t.circuit_id
+  LEFT JOIN sites s ON s.id = c.site_id`;
 
 const db = (): Sequelize => Site.sequelize!;
 const select = <T extends object>(sql: string, replacements: Record<string, unknown> | unknown[] = {}) =>
@@ -31,7 +31,8 @@ const select = <T extends object>(sql: string, replacements: Record<string, unkn
 
 function filters(q: { site?: string; circuit?: number; tank?: number; priority?: number; state?: string }) {
   const where: string[] = [];
-  if (q.site) where.push('s.tag = :site');
+  // A plant-wide alarm concerns every site.
+  if (q.site) where.push('(s.tag = :site OR i.tank_id IS NULL)');
   if (q.circuit) where.push('c.id = :circuit');
   if (q.tank) where.push('t.id = :tank');
   if (q.priority) where.push('i.priority = :priority');

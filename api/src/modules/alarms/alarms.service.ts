@@ -2,7 +2,7 @@ import { csvText } from '../../lib/csv.ts';
 import { alarmFigures } from '../../../../shared/alarms/figures.ts';
 import { MAX_SHELVE_MIN } from '../../../../shared/alarms/states.ts';
 import { ALARM_TARGETS } from '../../../../shared/alarms/targets.ts';
-import { mayShelve } from '../../../../shared/alarms/roles.ts';
+import { mayShelve, PLANT_SHELVE_RULE } from '../../../../shared/alarms/roles.ts';
 import type { ActiveQuery, AlarmSummary, AlarmView, HistoryQuery, OosInput, ShelveInput } from '../../../../shared/schemas/alarms.ts';
 import type { SessionUser } from '../../../../shared/schemas/auth.ts';
 import { AppError } from '../../lib/app-error.ts';
@@ -85,7 +85,7 @@ export const alarmsService = {
   async shelve(id: number, who: Who & Pick<SessionUser, 'role'>, input: ShelveInput) {
     const alarm = await repo.instance(id);
     if (!alarm) throw AppError.notFound('Alarm');
-    const rule = await siteSettingsRepository.forTank(alarm.tankId);
+    const rule = alarm.tankId === null ? PLANT_SHELVE_RULE : await siteSettingsRepository.forTank(alarm.tankId);
     if (!mayShelve(who.role, rule)) throw AppError.forbidden('At this site, shelving is for supervisors, engineers and admins');
     const maxMin = Math.min(MAX_SHELVE_MIN, rule.maxShelveHours * 60);
     const now = new Date();

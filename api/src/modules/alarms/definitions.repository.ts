@@ -1,11 +1,11 @@
 import { QueryTypes, UniqueConstraintError, type Sequelize, type Transaction } from 'sequelize';
-import { KIND_INFO, limitFor, type AlarmKind } from '../../../../shared/alarms/kinds.ts';
+import { KIND_INFO, limitFor, type TankAlarmKind } from '../../../../shared/alarms/kinds.ts';
 import type { DefinitionSettings, DefinitionView } from '../../../../shared/schemas/alarms.ts';
 import { Site } from '../../db/models.ts';
 
 /** Alarm definitions: read with the tank's live band, written with the caller's transaction. */
 type Row = {
-  id: number; tank_id: number; tank_tag: string; kind: AlarmKind; priority: number; threshold: number | null; deadband: number;
+  id: number; tank_id: number; tank_tag: string; kind: TankAlarmKind; priority: number; threshold: number | null; deadband: number;
   on_delay_s: number; off_delay_s: number; window_s: number | null; cause: string; consequence: string; action: string;
   response_min: number; band_low: number; band_high: number; updated_at: Date;
 };

@@ -6,12 +6,12 @@ import type { AlarmEventView, AlarmView } from '../../../../shared/schemas/alarm
 const iso = (d: Date | string | null): string | null => (d === null ? null : new Date(d).toISOString());
 
 export type InstanceRow = {
-  id: number; definition_id: number; tank_id: number; priority: Priority; state: AlarmState; condition_active: number;
+  id: number; definition_id: number; tank_id: number | null; priority: Priority; state: AlarmState; condition_active: number;
   opened_at: Date; activated_at: Date | null; unack_since: Date | null; acked_at: Date | null; acked_by: string | null;
   closed_at: Date | null; shelved_until: Date | null; shelved_reason: string | null; shelved_by: string | null; oos_reason: string | null; oos_until: Date | null;
   first_value: number | null; limit_value: number | null; last_value: number | null; last_value_at: Date | null; last_event_id: number;
   kind: AlarmKind; cause: string; consequence: string; action: string; response_min: number;
-  tank_tag: string; tank_name: string; circuit_id: number; circuit_tag: string; site_tag: string;
+  tank_tag: string | null; tank_name: string | null; circuit_id: number | null; circuit_tag: string | null; site_tag: string | null;
 };
 
 export function toAlarmView(r: InstanceRow): AlarmView {
@@ -29,9 +29,9 @@ export function toAlarmView(r: InstanceRow): AlarmView {
 }
 
 export type EventRow = {
-  id: number; instance_id: number; definition_id: number; tank_id: number; at: Date; kind: string; from_state: AlarmState;
+  id: number; instance_id: number; definition_id: number; tank_id: number | null; at: Date; kind: string; from_state: AlarmState;
   to_state: AlarmState; condition_active: number; value: number | null; limit_value: number | null; by_user_id: number | null;
-  by_name: string | null; how: AlarmHow; comment: string | null; alarm_kind: AlarmKind; priority: Priority; tank_tag: string; site_tag: string;
+  by_name: string | null; how: AlarmHow; comment: string | null; alarm_kind: AlarmKind; priority: Priority; tank_tag: string | null; site_tag: string | null;
 };
 
 export function toEventView(r: EventRow): AlarmEventView {

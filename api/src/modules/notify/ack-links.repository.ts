@@ -4,11 +4,11 @@ import type { AlarmKind } from '../../../../shared/alarms/kinds.ts';
 /** The acknowledge links sent in escalation mail, and what their pages show of the alarm. */
 export type AckLink = { jti: string; instanceId: number; personName: string; email: string; expiresAt: Date; usedAt: Date | null };
 export type AckAlarm = {
-  id: number; tankTag: string; kind: AlarmKind; priority: number; state: string; open: boolean; ackedBy: string | null; ackedAt: Date | null;
+  id: number; tankTag: string | null; kind: AlarmKind; priority: number; state: string; open: boolean; ackedBy: string | null; ackedAt: Date | null;
 };
 
 type LinkRow = { jti: string; instance_id: number; person_name: string; email: string; expires_at: Date; used_at: Date | null };
-type AlarmRow = { id: number; tank_tag: string; kind: AlarmKind; priority: number; state: string; open_definition_id: number | null; acked_by: string | null; acked_at: Date | null };
+type AlarmRow = { id: number; tank_tag: string | null; kind: AlarmKind; priority: number; state: string; open_definition_id: number | null; acked_by: string | null; acked_at: Date | null };
 
 const toLink = (r: LinkRow): AckLink => ({
   jti: r.jti, instanceId: r.instance_id, personName: r.person_name, email: r.email, expiresAt: new Date(r.expires_at), usedAt: r.used_at && new Date(r.used_at),
@@ -17,7 +17,7 @@ const toLink = (r: LinkRow): AckLink => ({
 export const ackLinksRepository = {
   async alarm(sequelize: Sequelize, id: number): Promise<AckAlarm | null> {
     const [a] = await sequelize.query<AlarmRow>(
-      'SELECT i.id, t.tag AS tank_tag, d.kind, i.priority, i.state, i.open_definition_id, i.acked_by, i.acked_at FROM alarm_instances i JOIN alarm_definitions d ON d.id = i.definition_id JOIN tanks t ON t.id = i.tank_id WHERE i.id = ?',
+      'SELECT i.id, t.tag AS tank_tag, d.kind, i.priority, i.state, i.open_definition_id, i.acked_by, i.acked_at FROM alarm_instances i JOIN alarm_definitions d ON d.id = i.definition_id LEFT JOIN tanks t ON t.id = i.tank_id WHERE i.id = ?',
       { replacements: [id], type: QueryTypes.SELECT });
     return a ? { id: a.id, tankTag: a.tank_tag, kind: a.kind, priority: a.priority, state: a.state, open: a.open_definition_id !== null, ackedBy: a.acked_by, ackedAt: a.acked_at } : null;
   },

@@ -15,7 +15,7 @@ const STATUS: Record<AckPage['outcome'] | 'unconfigured', number> = {
 function summary(p: AckPage): string {
   const a = p.alarm;
   if (!a) return '';
-  return `<p class="alarm"><span class="pill p${a.priority}">P${a.priority}</span> <strong>${esc(a.tankTag)}</strong> · ${esc(a.label)}</p>
+  return `<p class="alarm"><span class="pill p${a.priority}">P${a.priority}</span> <strong>${esc(a.tankTag ?? 'Plant')}</strong> · ${esc(a.label)}</p>
 <p><a href="/alarm-desk?alarm=${a.id}">Open this alarm on the Alarm desk</a> (sign-in needed)</p>`;
 }
 

@@ -14,7 +14,7 @@ export type AckOutcome = 'confirm' | 'done' | 'used' | 'expired' | 'invalid' | '
 export type AckPage = {
   outcome: AckOutcome;
   personName?: string;
-  alarm?: { id: number; tankTag: string; label: string; priority: number; state: string; ackedBy: string | null; ackedAt: Date | null };
+  alarm?: { id: number; tankTag: string | null; label: string; priority: number; state: string; ackedBy: string | null; ackedAt: Date | null };
 };
 
 async function alarmOf(sequelize: Sequelize, id: number): Promise<AckPage['alarm']> {

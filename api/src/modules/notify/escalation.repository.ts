@@ -30,6 +30,12 @@ export const escalationRepository = {
     return { siteName: f.site_name, timeZone: f.time_zone, band: { low: f.band_low, high: f.band_high } };
   },
 
+  /** A plant-wide alarm's mail: every site's name, and the first site's time zone (UTC with no site yet). */
+  async plantFacts(sequelize: Sequelize): Promise<Omit<TankFacts, 'band'>> {
+    const sites = await sequelize.query<{ name: string; time_zone: string }>('SELECT name, time_zone FROM sites ORDER BY id', { type: QueryTypes.SELECT });
+    return { siteName: sites.length ? sites.map((s) => s.name).join(', ') : 'this plant', timeZone: sites[0]?.time_zone ?? 'UTC' };
+  },
+
   /** The newest reading of the tank's active probe, or null when it has none. */
   async latestReading(sequelize: Sequelize, tankId: number): Promise<LatestReading | null> {
     const [r] = await sequelize.query<{ ts: Date; ratio: number; orp_mv: number; temp_c: number }>(

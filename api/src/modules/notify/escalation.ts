@@ -51,13 +51,14 @@ async function queueStep(s: EscalationSettings, alarm: AlarmView, step: Escalati
     const token = signAckToken(s.ackSecret, { jti, instanceId: alarm.id, email: p.email }, now.getTime(), s.ackTtlS);
     return { ...p, jti, ackUrl: `${s.publicUrl}/ack/${token}` };
   });
-  const facts = await escalationRepository.tankFacts(sequelize, alarm.tankId);
-  const latest = await escalationRepository.latestReading(sequelize, alarm.tankId);
+  const tankId = alarm.tankId;
+  const facts = tankId === null ? { ...(await escalationRepository.plantFacts(sequelize)), band: null } : await escalationRepository.tankFacts(sequelize, tankId);
+  const latest = tankId === null ? null : await escalationRepository.latestReading(sequelize, tankId);
   const told: Told[] = earlier.flatMap((o) => o.recipients.map((r) => ({ personName: r.personName, roleOnCall: r.roleOnCall, step: o.step, at: o.createdAt.toISOString() })));
   const expiresAt = new Date(now.getTime() + s.ackTtlS * 1000);
   const mail = composeMail({
     alarm, siteName: facts.siteName, band: facts.band, step: step.step, afterMin: step.afterMin, latest,
-    recipients: links, told, tankUrl: `${s.publicUrl}/tanks/${alarm.tankId}`, alarmUrl: `${s.publicUrl}/alarm-desk?alarm=${alarm.id}`, timeZone: facts.timeZone, linkExpiresAt: expiresAt, now,
+    recipients: links, told, tankUrl: tankId === null ? null : `${s.publicUrl}/tanks/${tankId}`, alarmUrl: `${s.publicUrl}/alarm-desk?alarm=${alarm.id}`, timeZone: facts.timeZone, linkExpiresAt: expiresAt, now,
   });
   const recipients: Recipient[] = links.map(({ personName, email, roleOnCall, ackUrl }) => ({ personName, email, roleOnCall, ackUrl }));
   const host = new URL(s.publicUrl).hostname || 'ferrisight.local';

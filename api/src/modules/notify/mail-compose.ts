@@ -9,13 +9,15 @@ export type Told = { personName: string; roleOnCall: OnCallRole; step: number; a
 export type MailContext = {
   alarm: AlarmView;
   siteName: string;
-  band: { low: number; high: number };
+  /** null for a plant-wide alarm. */
+  band: { low: number; high: number } | null;
   latest: { ratio: number; orpMv: number; tempC: number; ts: string } | null;
   step: number;
   afterMin: number;
   recipients: Recipient[];
   told: Told[];
-  tankUrl: string;
+  /** null for a plant-wide alarm. */
+  tankUrl: string | null;
   /** The alarm itself on the Alarm desk. */
   alarmUrl: string;
   timeZone: string;
@@ -35,7 +37,7 @@ function when(iso: string | Date, tz: string): string {
 
 function valueLine(c: MailContext): string {
   const a = c.alarm;
-  if (a.kind === 'ratio-below-band' || a.kind === 'ratio-above-band') {
+  if ((a.kind === 'ratio-below-band' || a.kind === 'ratio-above-band') && c.band) {
     return `${a.firstValue === null ? '—' : ratio(a.firstValue)} at activation; band ${ratio(c.band.low)}–${ratio(c.band.high)}`;
   }
   const v = a.firstValue === null ? '—' : `${Math.round(a.firstValue * 10) / 10} ${a.unit}`;
@@ -47,7 +49,7 @@ function facts(c: MailContext): Array<[string, string]> {
   const a = c.alarm;
   const minutes = a.unackSince ? Math.max(0, Math.round((c.now.getTime() - Date.parse(a.unackSince)) / 60_000)) : c.afterMin;
   const rows: Array<[string, string]> = [
-    ['Tank', `${a.tankTag} · ${a.tankName} (${a.circuitTag})`],
+    a.tankId === null ? ['Where', 'The whole plant: Ferrisight itself, not a tank'] : ['Tank', `${a.tankTag} · ${a.tankName} (${a.circuitTag})`],
     ['Alarm', `${a.label} (${PRIORITY_LABEL[a.priority]})`],
     ['Value', valueLine(c)],
   ];
@@ -81,14 +83,14 @@ const esc = (s: string) => s.replace(/[&<>"']/g, (ch) => `&#${ch.charCodeAt(0)};
 
 export function composeMail(c: MailContext): ComposedMail {
   const a = c.alarm;
-  const subject = `P${a.priority} ${a.tankTag}: ${a.label}, unacknowledged (step ${c.step})`;
+  const subject = `P${a.priority} ${a.tankTag ?? 'Plant'}: ${a.label}, unacknowledged (step ${c.step})`;
   const expires = when(c.linkExpiresAt, c.timeZone);
   const text = [
     `A P${a.priority} alarm at ${c.siteName} is waiting for acknowledgement.`, '',
     ...facts(c).map(([k, v]) => `${`${k}:`.padEnd(16)} ${v}`), '',
     'Told so far:', ...toldLines(c).map((l) => `  - ${l}`), '',
     `The alarm: ${c.alarmUrl}`,
-    `Tank page: ${c.tankUrl}`, '',
+    ...(c.tankUrl ? [`Tank page: ${c.tankUrl}`] : []), '',
     TEXT_SLOT,
     `(Your link is yours alone: it works once, until ${expires}, and asks you to confirm first.)`, '',
     CAUTION, '',
@@ -97,7 +99,7 @@ export function composeMail(c: MailContext): ComposedMail {
 <p><strong>A P${a.priority} alarm at ${esc(c.siteName)} is waiting for acknowledgement.</strong></p>
 <table cellpadding="4" style="border-collapse:collapse">${facts(c).map(([k, v]) => `<tr><th align="left" valign="top">${esc(k)}</th><td>${esc(v)}</td></tr>`).join('')}</table>
 <p><strong>Told so far</strong></p><ul>${toldLines(c).map((l) => `<li>${esc(l)}</li>`).join('')}</ul>
-<p><a href="${esc(c.alarmUrl)}">Open the alarm</a> · <a href="${esc(c.tankUrl)}">Open the tank page</a></p>
+<p><a href="${esc(c.alarmUrl)}">Open the alarm</a>${c.tankUrl ? ` · <a href="${esc(c.tankUrl)}">Open the tank page</a>` : ''}</p>
 ${HTML_SLOT}
 <p style="color:#444e59">Your link is yours alone: it works once, until ${esc(expires)}, and asks you to confirm first.</p>
 <p style="color:#444e59;font-size:90%">${esc(CAUTION)}</p>

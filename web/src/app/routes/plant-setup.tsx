@@ -43,7 +43,7 @@ function PeopleAndServices({ userId }: { userId: number }) {
       <AlarmHandlingPanel />
       <div className="grid gap-4 lg:grid-cols-2">
         <SimulatorPanel probes={probes} />
-        <IngestHealthPanel timeZone={timeZone} />
+        <div id="ingest-health"><IngestHealthPanel timeZone={timeZone} deskPath={SCREENS.alarms.path} /></div>
       </div>
       <CaughtMailPanel timeZone={timeZone} />
     </div>

@@ -1,6 +1,7 @@
 import { useEffect } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { NewAlarmBanner } from '../../features/alarms/components/new-alarm-banner';
+import { PlantAlarmBanner } from '../../features/alarms/components/plant-alarm-banner';
 import { useAlarmLiveSync } from '../../features/alarms/hooks/use-alarm-live-sync';
 import { useTankAlarmBadges } from '../../features/alarms/hooks/use-tank-alarm-badges';
 import { useSessionUser } from '../../features/auth/hooks/use-session-user';
@@ -8,7 +9,7 @@ import { usePlantLiveSync } from '../../features/floor/hooks/use-plant-live-sync
 import { connectSocket, disconnectSocket, useSocketEvent } from '../../lib/socket';
 import { TankAlarmsProvider } from '../../lib/tank-alarms';
 import { endSession } from '../session';
-import { SCREENS } from '../screens';
+import { PLANT_HEALTH_PATH, SCREENS } from '../screens';
 import { Header } from './header';
 
 /** Signed-in frame: header, live connection, and the screen. */
@@ -33,6 +34,7 @@ export function AppShell() {
         Skip to content
       </a>
       <Header user={user} />
+      <PlantAlarmBanner role={user.role} deskPath={SCREENS.alarms.path} healthPath={user.role === 'admin' ? PLANT_HEALTH_PATH : undefined} />
       <NewAlarmBanner deskPath={SCREENS.alarms.path} />
       <main id="main" className="relative min-h-0 flex-1 overflow-auto p-3">
         <TankAlarmsProvider value={tankAlarms}>

@@ -3,6 +3,7 @@ import { Quantity } from '../../../components/ui/quantity';
 import { useNow } from '../../../lib/clock';
 import { formatAge, formatDateTime } from '../../../lib/format';
 import { useIngestHealth, type IngestHealth } from '../api/get-ingest-health';
+import { IngestWatch } from './ingest-watch';
 import { PartsList } from './parts-list';
 
 const count = (n: number) => n.toLocaleString('en-GB');
@@ -23,7 +24,8 @@ const FIGURES: Array<{ key: keyof IngestHealth; label: string; render: (h: Inges
   { key: 'mqttConnected', label: 'Broker link', render: (h) => [h.mqttConnected ? 'up' : 'down'], warn: (h) => !h.mqttConnected },
 ];
 
-export function IngestHealthPanel({ timeZone }: { timeZone: string }) {
+/** deskPath: the Alarm desk, where the "ingest stopped" alarm is acknowledged. */
+export function IngestHealthPanel({ timeZone, deskPath }: { timeZone: string; deskPath: string }) {
   const health = useIngestHealth();
   const now = useNow();
   const h = health.data?.health;
@@ -65,6 +67,7 @@ export function IngestHealthPanel({ timeZone }: { timeZone: string }) {
           )}
         </>
       )}
+      {health.data && <IngestWatch workers={health.data.workers} alarm={health.data.ingestAlarm} deskPath={deskPath} />}
       {health.data?.parts && health.data.parts.length > 0 && <PartsList parts={health.data.parts} now={now} />}
     </Panel>
   );

@@ -25,7 +25,7 @@ export function ActiveAlarms({ role, timeZone, places, filters, onFilters, selec
   const circuitOf = new Map(places.map((p) => [p.tankId, p.circuitId]));
   const latest = new Map(places.map((p) => [p.tankId, p.latest]));
   const shown = q.data.alarms
-    .filter((a) => (!filters.site || a.siteTag === filters.site) && (!filters.circuit || circuitOf.get(a.tankId) === filters.circuit))
+    .filter((a) => (!filters.site || a.siteTag === filters.site || a.siteTag === null) && (!filters.circuit || (a.tankId !== null && circuitOf.get(a.tankId) === filters.circuit)))
     .filter((a) => (!filters.tank || a.tankId === filters.tank) && (!filters.priority || a.priority === filters.priority) && (!filters.state || a.state === filters.state))
     .sort(deskOrder);
   const canAck = ACK_ROLES.includes(role);

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
+import { PLANT_SHELVE_RULE } from '@shared/alarms/roles';
 import type { Role } from '@shared/schemas/auth';
 import { PriorityPill } from '../../../components/ui/priority-pill';
 import { Panel } from '../../../components/ui/panel';
@@ -8,7 +9,7 @@ import { useShelveRules } from '../api/get-shelve-rules';
 import { useAlarm } from '../api/get-alarm';
 import { AlarmActions } from './alarm-actions';
 import { AlarmStateLabel } from './alarm-state-label';
-import { isUnacknowledged, nowText, valueText } from './alarm-states';
+import { isUnacknowledged, nowText, placeOf, valueText } from './alarm-states';
 import type { Place } from './desk-types';
 import { AlarmTimeline } from './alarm-timeline';
 
@@ -28,17 +29,17 @@ export function AlarmDetail({ id, role, timeZone, places, onClose }: { id: numbe
   if (!q.data) return <Panel title="Alarm">{q.isError ? <p className="text-attention-1-ink">{q.error.message}</p> : <p className="text-ink-muted">Loading…</p>}</Panel>;
   const { alarm, timeline } = q.data;
   const when = (iso: string | null) => (iso ? formatDateTime(iso, timeZone) : '—');
-  const live = alarm.closedAt ? null : nowText(alarm, places.find((p) => p.tankId === alarm.tankId)?.latest);
+  const live = alarm.closedAt || alarm.tankId === null ? null : nowText(alarm, places.find((p) => p.tankId === alarm.tankId)?.latest);
   return (
     <Panel
-      title={`${alarm.tankTag} · ${alarm.label}`}
+      title={`${placeOf(alarm)} · ${alarm.label}`}
       actions={<button type="button" onClick={onClose} className="text-sm text-ink-muted hover:text-ink">Close</button>}
     >
       <div className="flex flex-col gap-4" data-testid="alarm-detail" data-alarm-id={alarm.id}>
         <div className="flex items-center gap-3">
           <PriorityPill priority={alarm.priority} pulse={isUnacknowledged(alarm.state)} />
           <AlarmStateLabel state={alarm.state} shelvedUntil={alarm.shelvedUntil} timeZone={timeZone} />
-          <Link to={`/tanks/${alarm.tankId}`} className="ml-auto text-sm text-info-ink underline">Tank page</Link>
+          {alarm.tankId !== null && <Link to={`/tanks/${alarm.tankId}`} className="ml-auto text-sm text-info-ink underline">Tank page</Link>}
         </div>
         <dl className="flex flex-col gap-1">
           {live && <Fact label="Now">{live}</Fact>}
@@ -57,7 +58,7 @@ export function AlarmDetail({ id, role, timeZone, places, onClose }: { id: numbe
             <Fact label="If nobody acts">{alarm.rationalisation.consequence}</Fact>
           </dl>
         </section>
-        <AlarmActions alarm={alarm} role={role} shelveRule={rules.data?.get(alarm.siteTag)} />
+        <AlarmActions alarm={alarm} role={role} shelveRule={alarm.siteTag === null ? PLANT_SHELVE_RULE : rules.data?.get(alarm.siteTag)} />
         <section aria-label="Timeline">
           <h3 className="mb-2 text-sm font-bold">Timeline</h3>
           <AlarmTimeline alarm={alarm} events={timeline} timeZone={timeZone} />

@@ -14,6 +14,8 @@ export const STATE_LABEL: Record<AlarmState, string> = {
 };
 
 export const isAnnunciated = (s: AlarmState) => ANNUNCIATED.includes(s);
+/** Where an alarm is: its tank, or the whole plant for an alarm about Ferrisight itself. */
+export const placeOf = (a: { tankTag: string | null }) => a.tankTag ?? 'Plant';
 export const isUnacknowledged = (s: AlarmState) => UNACKNOWLEDGED.includes(s);
 
 /** A measured value in its kind's unit, with the house display rules (see lib/format.ts); times in their largest sensible unit. */
@@ -29,6 +31,7 @@ export function formatAlarmValue(kind: AlarmView['kind'], v: number | null): str
 /** "6.2 (limit 8.0)" style text for tables and the timeline; an overdue check reads "3 h past due". */
 export function valueText(a: Pick<AlarmView, 'kind' | 'unit'>, value: number | null, limit: number | null): string {
   if (a.kind === 'probe-check-overdue') return formatAlarmValue(a.kind, value);
+  if (a.kind === 'ingest-stopped') return value === null ? '—' : `last heartbeat ${formatDuration(value)} ago`;
   const unit = a.unit ? ` ${a.unit}` : '';
   return `${formatAlarmValue(a.kind, value)}${value === null ? '' : unit}${limit === null ? '' : ` (limit ${formatAlarmValue(a.kind, limit)})`}`;
 }

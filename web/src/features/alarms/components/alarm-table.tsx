@@ -6,7 +6,7 @@ import { useNow } from '../../../lib/clock';
 import { formatDateTime, formatDuration } from '../../../lib/format';
 import { useMediaQuery } from '../../../lib/use-media-query';
 import { AlarmStateLabel } from './alarm-state-label';
-import { isUnacknowledged, nowText, valueText } from './alarm-states';
+import { isUnacknowledged, nowText, placeOf, valueText } from './alarm-states';
 
 const since = (a: AlarmView) => Date.parse(a.activatedAt ?? a.openedAt);
 
@@ -27,11 +27,11 @@ type Props = {
 };
 
 /** What tests and assistive tech find on a row or card alike. */
-const rowProps = (a: AlarmView, selectedId: number | null) => ({ 'data-testid': 'alarm-row', 'data-alarm-id': a.id, 'data-tank': a.tankTag, 'aria-selected': a.id === selectedId });
+const rowProps = (a: AlarmView, selectedId: number | null) => ({ 'data-testid': 'alarm-row', 'data-alarm-id': a.id, 'data-tank': placeOf(a), 'aria-selected': a.id === selectedId });
 
 function AckButton({ a, onAcknowledge }: { a: AlarmView; onAcknowledge: (id: number) => void }) {
   return (
-    <Button size="sm" variant="primary" onClick={(e) => (e.stopPropagation(), onAcknowledge(a.id))} aria-label={`Acknowledge ${a.tankTag} ${a.label}`}>
+    <Button size="sm" variant="primary" onClick={(e) => (e.stopPropagation(), onAcknowledge(a.id))} aria-label={`Acknowledge ${placeOf(a)} ${a.label}`}>
       Acknowledge
     </Button>
   );
@@ -69,11 +69,11 @@ function Table({ alarms, selectedId, timeZone, canAck, onSelect, onAcknowledge, 
           >
             <td className="py-2 pr-2"><PriorityPill priority={a.priority} pulse={isUnacknowledged(a.state)} /></td>
             <td className="pr-2"><AlarmStateLabel state={a.state} shelvedUntil={a.shelvedUntil} timeZone={timeZone} /></td>
-            <td className="pr-2 font-bold">{a.tankTag}</td>
+            <td className="pr-2 font-bold">{placeOf(a)}</td>
             <td className="pr-2">
               <button type="button" className="text-left hover:underline" onClick={(e) => (e.stopPropagation(), onSelect(a.id))}>{a.label}</button>
             </td>
-            {mode === 'active' && <td className="pr-2 text-right font-semibold tabular-nums" data-testid="alarm-now">{nowText(a, latest?.get(a.tankId)) ?? '—'}</td>}
+            {mode === 'active' && <td className="pr-2 text-right font-semibold tabular-nums" data-testid="alarm-now">{nowText(a, a.tankId === null ? null : latest?.get(a.tankId)) ?? '—'}</td>}
             <td className="pr-2 text-right tabular-nums">{valueText(a, a.firstValue, a.limitValue)}</td>
             <td className="pr-2 text-right tabular-nums text-ink-muted">
               {mode === 'active' ? formatDuration((now - since(a)) / 1000) : formatDateTime(a.openedAt, timeZone)}
@@ -93,7 +93,7 @@ function Cards({ alarms, selectedId, timeZone, canAck, onSelect, onAcknowledge, 
   return (
     <ul className="flex flex-col gap-2" data-testid={`alarm-cards-${mode}`}>
       {alarms.map((a) => {
-        const live = mode === 'active' ? nowText(a, latest?.get(a.tankId)) : null;
+        const live = mode === 'active' ? nowText(a, a.tankId === null ? null : latest?.get(a.tankId)) : null;
         return (
           <li
             key={a.id}
@@ -102,7 +102,7 @@ function Cards({ alarms, selectedId, timeZone, canAck, onSelect, onAcknowledge, 
           >
             <div className="flex flex-wrap items-center gap-2">
               <PriorityPill priority={a.priority} pulse={isUnacknowledged(a.state)} />
-              <span className="text-lg font-bold">{a.tankTag}</span>
+              <span className="text-lg font-bold">{placeOf(a)}</span>
               <AlarmStateLabel state={a.state} shelvedUntil={a.shelvedUntil} timeZone={timeZone} />
             </div>
             <button type="button" className="text-left font-semibold underline-offset-2 hover:underline" onClick={() => onSelect(a.id)}>{a.label}</button>

@@ -11,7 +11,8 @@ import { useAlarmAnnouncer } from '../hooks/use-alarm-announcer';
 export function NewAlarmBanner({ deskPath }: { deskPath: string }) {
   const { fresh, dismiss } = useAlarmAnnouncer();
   const open = useActiveAlarms().data?.alarms;
-  const waiting = fresh.filter((e) => open?.some((a) => a.id === e.instanceId && a.state === 'unacknowledged') ?? true);
+  // A plant-wide alarm has its own banner that stays (plant-alarm-banner.tsx).
+  const waiting = fresh.filter((e) => e.tankId !== null && (open?.some((a) => a.id === e.instanceId && a.state === 'unacknowledged') ?? true));
   if (waiting.length === 0) return null;
   return (
     <div role="alert" className="flex flex-col gap-1 border-b-2 border-attention-1 bg-attention-1-soft px-3 py-2" data-testid="new-alarm-banner">
@@ -20,7 +21,7 @@ export function NewAlarmBanner({ deskPath }: { deskPath: string }) {
           <PriorityPill priority={1} pulse />
           <span className="font-bold text-attention-1-ink">New alarm</span>
           <span className="truncate">
-            <span className="font-bold">{e.tankTag}</span> · {KIND_INFO[e.alarmKind].label}
+            <span className="font-bold">{e.tankTag ?? 'Plant'}</span> · {KIND_INFO[e.alarmKind].label}
           </span>
           <Link to={`${deskPath}?alarm=${e.instanceId}`} className="ml-auto font-semibold text-info-ink underline" onClick={() => dismiss(e.instanceId)}>
             Open on the Alarm desk

@@ -11,7 +11,7 @@ import { isAnnunciated, isUnacknowledged } from '../components/alarm-states';
 export function tankBadges(alarms: readonly AlarmView[]): Map<number, TankAlarmBadge> {
   const out = new Map<number, TankAlarmBadge>();
   for (const a of alarms) {
-    if (!isAnnunciated(a.state)) continue;
+    if (!isAnnunciated(a.state) || a.tankId === null) continue;
     const unack = isUnacknowledged(a.state) ? 1 : 0;
     const b = out.get(a.tankId);
     if (!b || a.priority < b.priority) out.set(a.tankId, { priority: a.priority, count: (b?.count ?? 0) + 1, unacknowledged: unack, label: a.label });
@@ -23,7 +23,7 @@ export function tankBadges(alarms: readonly AlarmView[]): Map<number, TankAlarmB
 /** Per tank, how many open alarms are not annunciated (shelved, suppressed, out of service). */
 export function tankSilenced(alarms: readonly AlarmView[]): Map<number, number> {
   const out = new Map<number, number>();
-  for (const a of alarms) if (!isAnnunciated(a.state)) out.set(a.tankId, (out.get(a.tankId) ?? 0) + 1);
+  for (const a of alarms) if (!isAnnunciated(a.state) && a.tankId !== null) out.set(a.tankId, (out.get(a.tankId) ?? 0) + 1);
   return out;
 }
 
@@ -31,7 +31,7 @@ export function tankSilenced(alarms: readonly AlarmView[]): Map<number, number> 
 export function tankHeld(alarms: readonly AlarmView[]): Map<number, TankHeldAlarms> {
   const out = new Map<number, TankHeldAlarms>();
   for (const a of alarms) {
-    if (isAnnunciated(a.state) || a.state === 'normal') continue;
+    if (isAnnunciated(a.state) || a.state === 'normal' || a.tankId === null) continue;
     const h = out.get(a.tankId) ?? { shelved: 0, outOfService: 0, suppressed: 0, shelvedUntil: null };
     if (a.state === 'shelved') {
       h.shelved += 1;
