@@ -24,7 +24,8 @@ async function startPlant(): Promise<Plant> {
   while (ports.size < 4) ports.add(await findFreePort());
   const [PORT, DB_PORT, MQTT_PORT, SMTP_PORT] = [...ports].map(String);
   const env: NodeJS.ProcessEnv = Object.fromEntries(KEEP.filter((k) => process.env[k]).map((k) => [k, process.env[k]]));
-  Object.assign(env, { PORT, DB_PORT, MQTT_PORT, SMTP_PORT, SIMULATOR: 'off', DEMO_HISTORY: 'off', DEMO: 'on', FERRISIGHT_DATA_DIR: path.relative(ROOT, DIR), LOG_LEVEL: 'warn' });
+  // INGEST_STOPPED_AFTER_S 30: the "ingest stopped" alarm clears 30 s after the last kill, leaving its 1-min escalation step time to fall due.
+  Object.assign(env, { PORT, DB_PORT, MQTT_PORT, SMTP_PORT, SIMULATOR: 'off', DEMO_HISTORY: 'off', DEMO: 'on', FERRISIGHT_DATA_DIR: path.relative(ROOT, DIR), LOG_LEVEL: 'warn', INGEST_STOPPED_AFTER_S: '30' });
   // Its own process group, like a service manager's unit: the test signals one PID only.
   const npm = spawn('npm', ['start'], { cwd: ROOT, env, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
   const log: string[] = [];
@@ -92,6 +93,24 @@ const apiUp = async (url: string) => {
   }
 };
 
+/** Signs a demo user in; returns the session cookie. */
+async function signIn(url: string, email: string): Promise<string> {
+  const res = await fetch(new URL('/api/auth/sign-in', url), {
+    method: 'POST', headers: { 'content-type': 'application/json', 'x-ferrisight-csrf': '1' },
+    body: JSON.stringify({ email, password: 'kestrel-demo' }),
+  });
+  expect(res.status).toBe(200);
+  return res.headers.get('set-cookie')!.split(';')[0]!;
+}
+
+type IngestAlarm = { id: number; state: string; conditionActive: boolean; label: string; tankId: number | null };
+/** The open "ingest stopped" alarm as the Alarm desk lists it, or null. */
+async function ingestAlarm(url: string, cookie: string): Promise<IngestAlarm | null> {
+  const res = await fetch(new URL('/api/alarms/active', url), { headers: { cookie }, signal: AbortSignal.timeout(5000) });
+  const body = (await res.json()) as { alarms: Array<IngestAlarm & { kind: string }> };
+  return body.alarms.find((a) => a.kind === 'ingest-stopped') ?? null;
+}
+
 afterAll(async () => {
   // Whatever a failed test left: stop it the way an operator would, then remove the folder.
   const run = readRunFile(DIR);
@@ -103,12 +122,26 @@ afterAll(async () => {
 }, 60_000);
 
 describe('npm start supervisor', () => {
-  test('when the ingest worker is SIGKILLed 20 times in a minute, then API, broker, notifier and MariaDB never stop, the API keeps serving, and the worker is back afterwards', async () => {
+  test('when the ingest worker is SIGKILLed 20 times in a minute, then API, broker, notifier and MariaDB never stop, the Floor keeps serving, the "ingest stopped" alarm is raised and mailed, and it clears once the worker is back', async () => {
     const plant = await startPlant();
     const steady = { broker: partPid('broker'), api: partPid('api'), notifier: partPid('notifier'), mail: partPid('mail'), mariadb: mariadbPid() };
     for (const pid of Object.values(steady)) expect(pid).toBeGreaterThan(0);
+    const admin = await signIn(plant.url, 'admin@kestrel.example');
+    const operator = await signIn(plant.url, 'operator@kestrel.example');
+    // The engineer on call is mailed after 1 min unacknowledged (the demo waits 5), so the mail falls due during the kills.
+    const policy = await fetch(new URL('/api/roster/policy', plant.url), {
+      method: 'PUT', headers: { 'content-type': 'application/json', 'x-ferrisight-csrf': '1', cookie: admin },
+      body: JSON.stringify({ priority: 1, steps: [{ afterMin: 1, notify: ['primary'] }], reason: 'Supervisor test: first call after a minute' }),
+    });
+    expect(policy.status).toBe(200);
+    expect(await ingestAlarm(plant.url, operator)).toBeNull();
+    const floorUp = async () => (await fetch(new URL('/api/plant', plant.url), { headers: { cookie: operator }, signal: AbortSignal.timeout(3000) }).catch(() => null))?.ok === true;
+
     let kills = 0;
     let apiFailures = 0;
+    let floorFailures = 0;
+    const t0 = Date.now();
+    let raisedAfterMs: number | null = null;
     for (let i = 0; i < 20; i += 1) {
       const t = Date.now();
       const pid = partPid('ingest');
@@ -117,9 +150,12 @@ describe('npm start supervisor', () => {
         kills += 1;
       }
       if (!(await apiUp(plant.url))) apiFailures += 1;
+      if (!(await floorUp())) floorFailures += 1;
+      if (raisedAfterMs === null && (await ingestAlarm(plant.url, operator))?.conditionActive) raisedAfterMs = Date.now() - t0;
       for (const [name, p] of Object.entries(steady)) expect(pidAlive(p!), `${name} still running`).toBe(true);
       await sleep(Math.max(0, 3000 - (Date.now() - t)));
     }
+    const killsEnded = Date.now();
     // 1 s pauses for the first 20 restarts in a row, then growing; once it is left alone it is back.
     const backMs = await waitUntil('ingest running again', () => readRunFile(DIR).states?.find((s) => s.name === 'ingest')?.state === 'running', 45_000);
     const ingest = readRunFile(DIR).states!.find((s) => s.name === 'ingest')!;
@@ -128,22 +164,44 @@ describe('npm start supervisor', () => {
     expect(ingest.restarts).toBeGreaterThanOrEqual(kills);
     expect(ingest.lastExit?.how).toBe('signal SIGKILL');
     expect(apiFailures).toBe(0);
+    expect(floorFailures).toBe(0);
     for (const [name, p] of Object.entries(steady)) expect(pidAlive(p!), `${name} still running`).toBe(true);
     expect(plant.log.join('\n')).not.toMatch(/giving up/);
 
-    // The same states reach Plant setup's health panel through the API.
-    const signIn = await fetch(new URL('/api/auth/sign-in', plant.url), {
-      method: 'POST', headers: { 'content-type': 'application/json', 'x-ferrisight-csrf': '1' },
-      body: JSON.stringify({ email: 'admin@kestrel.example', password: 'kestrel-demo' }),
+    // Raised during the kills, as a P1 of no tank, for everyone on the Alarm desk.
+    expect(raisedAfterMs, 'ingest-stopped alarm raised during the kills').not.toBeNull();
+    const raised = (await ingestAlarm(plant.url, operator))!;
+    expect(raised).toMatchObject({ label: 'Ingest stopped: readings are not being stored', tankId: null });
+    // Escalated by e-mail like any other alarm: the engineer on call gets a mail of their own, caught by the local catcher.
+    const mailOf = async () => {
+      const res = await fetch(new URL('/api/admin/mail?limit=500', plant.url), { headers: { cookie: admin } });
+      return ((await res.json()) as { mail: Array<{ subject: string; headers: Record<string, string> }> }).mail
+        .find((m) => m.headers['x-ferrisight-alarm'] === String(raised.id));
+    };
+    await waitUntil('escalation mail for the ingest-stopped alarm', async () => (await mailOf()) !== undefined, 90_000);
+    expect((await mailOf())!.subject).toBe('P1 Plant: Ingest stopped: readings are not being stored, unacknowledged (step 1)');
+    // Clears once the worker has run 30 s without an exit.
+    await waitUntil('ingest-stopped alarm cleared', async () => (await ingestAlarm(plant.url, operator))?.conditionActive === false, 120_000);
+    const clearedAfterKillsS = (Date.now() - killsEnded) / 1000;
+    const cleared = (await ingestAlarm(plant.url, operator))!;
+    expect(cleared).toMatchObject({ id: raised.id, state: 'rtn-unacknowledged' });
+    const ack = await fetch(new URL(`/api/alarms/instances/${raised.id}/acknowledge`, plant.url), {
+      method: 'POST', headers: { 'content-type': 'application/json', 'x-ferrisight-csrf': '1', cookie: operator }, body: '{}',
     });
-    expect(signIn.status).toBe(200);
-    const cookie = signIn.headers.get('set-cookie')!.split(';')[0]!;
-    const health = (await (await fetch(new URL('/api/admin/ingest-health', plant.url), { headers: { cookie } })).json()) as { parts: { name: string; restarts: number }[] };
+    expect(ack.status).toBe(200);
+    expect(await ingestAlarm(plant.url, operator)).toBeNull();
+    console.log(`ingest-stopped alarm raised ${((raisedAfterMs ?? 0) / 1000).toFixed(1)} s after the first kill, mailed, cleared ${clearedAfterKillsS.toFixed(1)} s after the last kill; Floor answered ${20 - floorFailures}/20 checks`);
+
+    // The same states reach Plant setup's health panel through the API.
+    const cookie = admin;
+    const health = (await (await fetch(new URL('/api/admin/ingest-health', plant.url), { headers: { cookie } })).json()) as { parts: { name: string; restarts: number }[]; workers: { worker: string; stopped: boolean }[]; ingestAlarm: { instanceId: number | null } | null };
+    expect(health.workers.filter((w) => !w.stopped)).toHaveLength(1);
+    expect(health.ingestAlarm).toMatchObject({ instanceId: null });
     expect(health.parts.find((p) => p.name === 'ingest')!.restarts).toBe(ingest.restarts);
     expect(health.parts.map((p) => p.name)).toEqual(expect.arrayContaining(['broker', 'api', 'notifier', 'ingest']));
 
     await stopBy(plant, 'SIGTERM');
-  }, 240_000);
+  }, 420_000);
 
   async function stopBy(plant: Plant, sig: NodeJS.Signals): Promise<void> {
     const tree = processTree(plant.npm.pid!);
