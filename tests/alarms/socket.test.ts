@@ -79,6 +79,19 @@ describe('alarm events over socket.io', () => {
     for (const c of clients) c.socket.disconnect();
   });
 
+  it('when the plant-wide ingest-stopped alarm changes, then a client of every role receives it, with no tank and no site, and the web schema accepts it', async () => {
+    const clients = await Promise.all(ROLES.map((r) => client(r)));
+    await new Promise((r) => setTimeout(r, 300));
+    const [plant] = await t.sequelize.query<{ id: number }>("SELECT id FROM alarm_definitions WHERE plant_kind = 'ingest-stopped'", { type: QueryTypes.SELECT });
+    const id = await toggle(plant.id);
+    await until(() => clients.every((c) => c.events.some((e) => e.id === id)));
+    const e = clients[0].events.find((x) => x.id === id)!;
+    expect(e).toMatchObject({ tankId: null, tankTag: null, siteTag: null, alarmKind: 'ingest-stopped', kind: 'activated', priority: 1 });
+    expect(alarmEventViewSchema.safeParse(e).error).toBeUndefined();
+    await toggle(plant.id);
+    for (const c of clients) c.socket.disconnect();
+  });
+
   it('when clients are away while alarms change, then on reconnecting with their last id they receive every missed event', async () => {
     const defs = await Promise.all(['A2', 'A3', 'A4'].map((tag) => onlyDefinition(t.sequelize, t.tanks[tag].id, 'ratio-below-band')));
     const away = await Promise.all(Array.from({ length: 20 }, () => client('operator')));
