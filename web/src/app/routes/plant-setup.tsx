@@ -1,4 +1,5 @@
-import { Link, useSearchParams } from 'react-router-dom';
+import { useEffect } from 'react';
+import { Link, useLocation, useSearchParams } from 'react-router-dom';
 import { AlarmHandlingPanel } from '../../features/admin/components/alarm-handling-panel';
 import { IngestHealthPanel } from '../../features/admin/components/ingest-health-panel';
 import { SimulatorPanel } from '../../features/admin/components/simulator-panel';
@@ -37,6 +38,11 @@ function PeopleAndServices({ userId }: { userId: number }) {
       s.circuits.flatMap((c) => c.tanks.flatMap((t) => (t.probe ? [{ tag: t.probe.tag, label: `${t.probe.tag} (tank ${t.tag})` }] : []))),
     ) ?? [];
   const timeZone = plant.data?.sites[0]?.timeZone ?? 'UTC';
+  // The system alarm's banner links to #ingest-health: a client-side navigation does not scroll to it by itself.
+  const { hash } = useLocation();
+  useEffect(() => {
+    if (hash) document.getElementById(hash.slice(1))?.scrollIntoView({ block: 'start' });
+  }, [hash]);
   return (
     <div className="flex flex-col gap-4">
       <UsersPanel currentUserId={userId} />
