@@ -29,7 +29,7 @@ const REPLAYED: readonly AlarmKind[] = ['ratio-below-band', 'ratio-above-band', 
 export async function alarmDefinitions(sequelize: Sequelize): Promise<AlarmDefinitionRow[]> {
   return sequelize.query<AlarmDefinitionRow>(
     `SELECT id, tank_id AS tankId, kind, priority, threshold, deadband, on_delay_s AS onDelayS, off_delay_s AS offDelayS
-       FROM alarm_definitions ORDER BY id`, { type: QueryTypes.SELECT });
+       FROM alarm_definitions WHERE tank_id IS NOT NULL ORDER BY id`, { type: QueryTypes.SELECT });
 }
 
 const valueOf = (kind: AlarmKind, r: ConvertedReading) =>

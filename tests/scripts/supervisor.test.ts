@@ -4,14 +4,16 @@
  * free ports. Process listings (ps) are the evidence that nothing is left behind.
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { createInterface } from 'node:readline';
+import { chromium } from 'playwright-core';
 import { afterAll, describe, expect, it, test } from 'vitest';
 import { restartDelayMs } from '../../scripts/lib/children.ts';
 import { findFreePort } from '../../scripts/lib/ports.ts';
 import { pidAlive, sleep } from '../../scripts/lib/proc.ts';
 import { readRunFile } from '../../scripts/lib/run-file.ts';
+import { overflowX, SHOTS } from '../helpers/browser.ts';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 const DIR = mkdtempSync(path.join(ROOT, '.data', 'test-supervisor-'));
@@ -172,6 +174,19 @@ describe('npm start supervisor', () => {
     expect(raisedAfterMs, 'ingest-stopped alarm raised during the kills').not.toBeNull();
     const raised = (await ingestAlarm(plant.url, operator))!;
     expect(raised).toMatchObject({ label: 'Ingest stopped: readings are not being stored', tankId: null });
+    // An operator's phone (390 px) shows it on the Floor, plainly, without sideways scrolling.
+    mkdirSync(SHOTS, { recursive: true });
+    const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-sync'] });
+    const phone = await (await browser.newContext({ viewport: { width: 390, height: 844 } })).newPage();
+    await phone.goto(new URL('/sign-in', plant.url).href);
+    await phone.getByLabel('E-mail').fill('operator@kestrel.example');
+    await phone.getByLabel('Password').fill('kestrel-demo');
+    await phone.getByRole('button', { name: 'Sign in' }).click();
+    await phone.waitForURL((u) => !u.pathname.startsWith('/sign-in'), { timeout: 20_000 });
+    const banner = phone.getByTestId('plant-alarm-banner');
+    await banner.getByText('Ingest stopped: readings are not being stored').waitFor({ timeout: 20_000 });
+    expect(await overflowX(phone)).toBe(0);
+    await phone.screenshot({ path: path.join(SHOTS, 'ingest-stopped-floor-390.png') });
     // Escalated by e-mail like any other alarm: the engineer on call gets a mail of their own, caught by the local catcher.
     const mailOf = async () => {
       const res = await fetch(new URL('/api/admin/mail?limit=500', plant.url), { headers: { cookie: admin } });
@@ -185,10 +200,10 @@ describe('npm start supervisor', () => {
     const clearedAfterKillsS = (Date.now() - killsEnded) / 1000;
     const cleared = (await ingestAlarm(plant.url, operator))!;
     expect(cleared).toMatchObject({ id: raised.id, state: 'rtn-unacknowledged' });
-    const ack = await fetch(new URL(`/api/alarms/instances/${raised.id}/acknowledge`, plant.url), {
-      method: 'POST', headers: { 'content-type': 'application/json', 'x-ferrisight-csrf': '1', cookie: operator }, body: '{}',
-    });
-    expect(ack.status).toBe(200);
+    // The operator acknowledges it from the banner on the phone; back to normal and acknowledged, it leaves every screen.
+    await banner.getByRole('button', { name: 'Acknowledge Ingest stopped: readings are not being stored' }).click();
+    await banner.waitFor({ state: 'detached', timeout: 20_000 });
+    await browser.close();
     expect(await ingestAlarm(plant.url, operator)).toBeNull();
     console.log(`ingest-stopped alarm raised ${((raisedAfterMs ?? 0) / 1000).toFixed(1)} s after the first kill, mailed, cleared ${clearedAfterKillsS.toFixed(1)} s after the last kill; Floor answered ${20 - floorFailures}/20 checks`);
 
