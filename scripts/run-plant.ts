@@ -355,6 +355,9 @@ async function main(): Promise<void> {
     const run = async (sql: string) => (await mariadbQuery(dbOpts, sql)).split('\n').filter(Boolean).map((l) => l.split('\t')[0]);
     const plan = await syncAppGrants(run, 'ferrisight', { name: 'ferrisight', host: '127.0.0.1' });
     await mariadbQuery(dbOpts, "ALTER USER 'ferrisight_owner'@'127.0.0.1' ACCOUNT LOCK;");
+    // Nothing runs on this private database before this start, so a heartbeat row left by a crash, or by
+    // a worker of an earlier layout (a cluster's ingest2), is not a worker to watch until it beats again.
+    await mariadbQuery(dbOpts, 'UPDATE ferrisight.ingest_heartbeats SET stopped_at = NOW(3) WHERE stopped_at IS NULL;');
     say(`Database grants synced: ${plan.filter((p) => p.privileges === 'SELECT, INSERT').length} append-only tables`);
   }
 
