@@ -9,6 +9,7 @@ import { errorHandler, notFoundHandler } from './middleware/errors.ts';
 import { adminRouter } from './modules/admin/admin.router.ts';
 import { alarmsRouter } from './modules/alarms/alarms.router.ts';
 import { assaysRouter } from './modules/assays/assays.router.ts';
+import { auditTrailRouter } from './modules/audit-trail/audit-trail.router.ts';
 import { bandsRouter } from './modules/bands/bands.router.ts';
 import { calibrationRouter } from './modules/calibration/calibration.router.ts';
 import { doseRouter } from './modules/dose/dose.router.ts';
@@ -89,6 +90,7 @@ export function createApp(deps: AppDeps): Express {
     ['/api/first-run', firstRunRouter()],
     ['/api/plant-setup', plantSetupRouter(deps.bus)],
     ['/api/dead-letters', deadLettersRouter({ retentionDays: deps.deadLetterRetentionDays ?? 30 })],
+    ['/api/audit', auditTrailRouter()],
     ['/api', plantRouter()],
     ['/api/admin', adminRouter(deps.bus, deps.dataDir)],
     ['/api/admin/mail', mailRouter(deps.mailDir)],

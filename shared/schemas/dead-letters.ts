@@ -25,19 +25,30 @@ export const DEAD_LETTER_KIND_LABELS: Record<DeadLetterKind, string> = {
 
 const optionalText = (max: number) => z.string().trim().max(max).optional().transform((v) => (v ? v : undefined));
 
+const deadLetterFilters = z.object({
+  site: optionalText(40),
+  gateway: optionalText(64),
+  probe: optionalText(40),
+  kind: z.enum(DEAD_LETTER_KINDS).optional(),
+  from: z.iso.datetime({ offset: true }).optional(),
+  to: z.iso.datetime({ offset: true }).optional(),
+});
+const fromBeforeTo = (v: { from?: string; to?: string }) => !v.from || !v.to || Date.parse(v.from) < Date.parse(v.to);
+const fromBeforeToIssue = { message: 'from must be before to', path: ['from'] };
+
 /** Filters of the dead letters and conflicts screen (query string). */
-export const deadLetterQuerySchema = z
-  .object({
-    site: optionalText(40),
-    gateway: optionalText(64),
-    probe: optionalText(40),
-    kind: z.enum(DEAD_LETTER_KINDS).optional(),
-    from: z.iso.datetime({ offset: true }).optional(),
-    to: z.iso.datetime({ offset: true }).optional(),
-    limit: z.coerce.number().int().min(1).max(500).default(100),
-  })
-  .refine((v) => !v.from || !v.to || Date.parse(v.from) < Date.parse(v.to), { message: 'from must be before to', path: ['from'] });
+export const deadLetterQuerySchema = deadLetterFilters
+  .extend({ limit: z.coerce.number().int().min(1).max(500).default(100) })
+  .refine(fromBeforeTo, fromBeforeToIssue);
+/** The same filters for the CSV download, which streams every matching dead letter (no page limit). */
+export const deadLetterExportQuerySchema = deadLetterFilters.refine(fromBeforeTo, fromBeforeToIssue);
+export type DeadLetterFilters = z.infer<typeof deadLetterExportQuerySchema>;
 export type DeadLetterQuery = z.infer<typeof deadLetterQuerySchema>;
+
+/** CSV columns of the dead-letter export, in order. */
+export const DEAD_LETTER_EXPORT_COLUMNS = [
+  'id', 'received_at_utc', 'gateway', 'site', 'probe', 'topic', 'kind', 'reason', 'payload_bytes', 'payload',
+] as const;
 
 export type DeadLetterRow = {
   id: number;

@@ -65,6 +65,7 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'POST', path: '/api/shift-log/entries', allowed: ALL, body: {} },
   { method: 'PATCH', path: '/api/shift-log/entries/:id', allowed: ALL, body: {} },
   { method: 'GET', path: '/api/digest', allowed: ALL },
+  { method: 'GET', path: '/api/digest/export', allowed: ALL },
   { method: 'GET', path: '/api/readings/export', allowed: ALL },
   { method: 'POST', path: '/api/readings/imports', allowed: ['metallurgist', 'admin'], body: {} },
   { method: 'GET', path: '/api/readings/imports', allowed: ['metallurgist', 'admin'] },
@@ -121,6 +122,10 @@ const MATRIX: Array<{ method: string; path: string; allowed: Role[]; body?: unkn
   { method: 'POST', path: '/api/plant-setup/gateways/:id/rotate', allowed: ['admin', 'engineer'], body: {} },
   { method: 'POST', path: '/api/plant-setup/gateways/:id/retire', allowed: ['admin', 'engineer'], body: {} },
   { method: 'GET', path: '/api/dead-letters', allowed: ['admin', 'engineer'] },
+  { method: 'GET', path: '/api/dead-letters/export', allowed: ['admin', 'engineer'], type: /text\/csv/ },
+  // The audit trail: admins read it (and nobody changes it).
+  { method: 'GET', path: '/api/audit', allowed: ['admin'] },
+  { method: 'GET', path: '/api/audit/export', allowed: ['admin'], type: /text\/csv/ },
   // Sign-out ends every session of the user, so it runs last.
   { method: 'POST', path: '/api/auth/sign-out', allowed: ALL },
 ];

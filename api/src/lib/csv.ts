@@ -1,5 +1,10 @@
+import { Transform, type Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 import { stringify, type Options } from 'csv-stringify';
 import { stringify as stringifySync } from 'csv-stringify/sync';
+import type { Response } from 'express';
+import type { PoolConnection } from '../db/pool.ts';
+import { logger } from './logger.ts';
 
 /**
  * The one CSV writer behind every export. Text that a spreadsheet would run as a formula
@@ -20,3 +25,35 @@ export function csvText(rows: unknown[][]): string {
 export function csvStream(columns: string[]) {
   return stringify({ ...OPTIONS, header: true, columns });
 }
+
+/** Starts a CSV download: file name, type, and no caching of what may be sensitive. */
+export function csvAttachment(res: Response, fileName: string): void {
+  res.status(200).attachment(fileName).type(CSV_TYPE);
+  res.setHeader('Cache-Control', 'no-store');
+}
+
+/**
+ * Streams rows read on a dedicated connection as a CSV download, a few rows in memory at a time.
+ * `shape` turns a database row (array) into the cells of one line. The connection is released at
+ * the end, or dropped when the client goes away or the query fails (a half-read result set
+ * would block it); once the first bytes left, a failure cuts the response so the file is
+ * visibly incomplete.
+ */
+export async function sendCsvRows(
+  res: Response, fileName: string, columns: readonly string[],
+  source: { conn: PoolConnection; rows: Readable }, shape: (row: unknown[]) => unknown[] = (row) => row,
+): Promise<void> {
+  csvAttachment(res, fileName);
+  const shaper = new Transform({ objectMode: true, transform: (row: unknown[], _enc, done) => done(null, shape(row)) });
+  try {
+    await pipeline(source.rows, shaper, csvStream([...columns]), res);
+    await source.conn.release();
+  } catch (err) {
+    source.conn.destroy();
+    if ((err as NodeJS.ErrnoException).code !== 'ERR_STREAM_PREMATURE_CLOSE') logger.error({ err, fileName }, 'CSV export failed mid-stream');
+    res.destroy();
+  }
+}
+
+/** 'YYYY-MM-DD HH:MM:SS[.mmm]' (UTC, as the raw pool returns DATETIME) → ISO 8601 with Z. */
+export const isoFromSql = (sqlTs: unknown): string => (sqlTs == null || sqlTs === '' ? '' : `${String(sqlTs).replace(' ', 'T')}Z`);

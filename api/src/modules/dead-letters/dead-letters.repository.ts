@@ -1,11 +1,14 @@
+import type { Readable } from 'node:stream';
 import { QueryTypes } from 'sequelize';
-import type { ConflictRow, DeadLetterKind, DeadLetterQuery, DeadLetterRow } from '../../../../shared/schemas/dead-letters.ts';
+import type { ConflictRow, DeadLetterFilters, DeadLetterKind, DeadLetterQuery, DeadLetterRow } from '../../../../shared/schemas/dead-letters.ts';
+import { rawPool } from '../../db/database.ts';
 import { Site } from '../../db/models.ts';
+import type { PoolConnection } from '../../db/pool.ts';
 
 const sqlTs = (iso: string) => new Date(iso).toISOString().replace('T', ' ').replace('Z', '');
 
 /** WHERE clauses of one filter, for dead letters (d) or conflicts (c joined to probes p and sites s). */
-function where(q: DeadLetterQuery, table: 'd' | 'c'): { sql: string; replacements: Record<string, string> } {
+function where(q: DeadLetterFilters, table: 'd' | 'c'): { sql: string; replacements: Record<string, string> } {
   const parts: string[] = [];
   const replacements: Record<string, string> = {};
   const add = (clause: string, key: string, value: string | undefined) => {
@@ -75,5 +78,17 @@ export const deadLettersRepository = {
     const byKind: Partial<Record<DeadLetterKind, number>> = {};
     for (const k of kinds) byKind[k.reason_kind] = Number(k.n);
     return { deadLetters: Object.values(byKind).reduce((a, b) => a + b, 0), conflicts: Number(conf.n), byKind };
+  },
+
+  /**
+   * Every dead letter of the filter, newest first, as arrays in DEAD_LETTER_EXPORT_COLUMNS order,
+   * streamed on a dedicated connection the caller releases.
+   */
+  async openExport(q: DeadLetterFilters): Promise<{ conn: PoolConnection; rows: Readable }> {
+    const w = where(q, 'd');
+    const conn = await rawPool(Site.sequelize!).getConnection();
+    const sql = `SELECT id, received_at, gateway, site_tag, probe_tag, topic, reason_kind, reason, payload_bytes, payload
+                   FROM dead_letters d ${w.sql} ORDER BY received_at DESC, id DESC`;
+    return { conn, rows: conn.queryStream({ sql, namedPlaceholders: true, rowsAsArray: true }, w.replacements) };
   },
 };

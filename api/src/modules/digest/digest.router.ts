@@ -1,7 +1,9 @@
 import { Router } from 'express';
-import { digestQuerySchema } from '../../../../shared/schemas/digest.ts';
+import { digestExportQuerySchema, digestQuerySchema } from '../../../../shared/schemas/digest.ts';
+import { csvAttachment, csvText } from '../../lib/csv.ts';
 import { requireSignIn } from '../../middleware/auth.ts';
 import { queryParams } from '../../middleware/validate.ts';
+import { digestFileName, digestTableRows } from './digest-csv.ts';
 import { digestService } from './digest.service.ts';
 
 /**
@@ -12,6 +14,13 @@ export function digestRouter(): Router {
   const r = Router();
   r.get('/', requireSignIn, async (req, res) => {
     res.json(await digestService.digest(queryParams(digestQuerySchema, req)));
+  });
+  // One table of the same digest the screen shows; a digest is at most a month of one site, so it is built whole.
+  r.get('/export', requireSignIn, async (req, res) => {
+    const { table, ...q } = queryParams(digestExportQuerySchema, req);
+    const d = await digestService.digest(q);
+    csvAttachment(res, digestFileName(d, table));
+    res.send(csvText(digestTableRows(d, table)));
   });
   return r;
 }

@@ -1,9 +1,8 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { pipeline } from 'node:stream/promises';
 import { randomBytes } from 'node:crypto';
 import { Router, type RequestHandler } from 'express';
-import { CSV_TYPE, csvStream } from '../../lib/csv.ts';
+import { sendCsvRows } from '../../lib/csv.ts';
 import multer from 'multer';
 import { IMPORT_MAX_BYTES, importIdParamSchema } from '../../../../shared/schemas/import.ts';
 import { AppError } from '../../lib/app-error.ts';
@@ -53,15 +52,7 @@ export function importRouter(o: ImportRouterOptions): Router {
   });
   r.get('/imports/:id/rejections', allowed, async (req, res) => {
     const { id } = params(importIdParamSchema, req);
-    const { conn, rows } = await importService.rejections(id);
-    res.status(200).attachment(`ferrisight-import-${id}-rejected-rows.csv`).type(CSV_TYPE);
-    try {
-      await pipeline(rows, csvStream(['line', 'reason', 'content']), res);
-      await conn.release();
-    } catch {
-      conn.destroy();
-      res.destroy();
-    }
+    await sendCsvRows(res, `ferrisight-import-${id}-rejected-rows.csv`, ['line', 'reason', 'content'], await importService.rejections(id));
   });
   return r;
 }
