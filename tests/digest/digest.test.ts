@@ -1,3 +1,4 @@
+import { parse } from 'csv-parse/sync';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -151,6 +152,24 @@ describe('shift digest', () => {
     expect(d.calibrations.items.map((c) => c.tankTag)).toEqual(['A1']);
     expect(d.assays.items[0].summary).toContain('ratio 10.00');
     expect(d.probeChecks.available).toBe(true);
+  });
+
+  it('when a digest table is downloaded, then the CSV holds the same rows and figures as the screen, with units in the column names', async () => {
+    const csv = async (table: string) => {
+      const res = await get(`/api/digest/export?shiftStart=${encodeURIComponent(shift.startsAt)}&table=${table}`, 'operator');
+      expect(res.status, res.text).toBe(200);
+      expect(res.headers['content-disposition']).toMatch(new RegExp(`shift-digest-.*-${table}\\.csv`));
+      return parse(res.text, { columns: true }) as Array<Record<string, string>>;
+    };
+    const tanksCsv = await csv('tanks');
+    expect(tanksCsv.map((r) => r.tank)).toEqual(d.tanks.map((x) => x.tag));
+    const a1Row = tanksCsv.find((r) => r.tank === 'A1')!;
+    expect(a1Row).toMatchObject({ in_band_min: '360', above_min: '120', below_min: '120', no_data_min: '120', in_band_pct: '50', orp_mean_mv: '446', orp_min_mv: '395' });
+    expect(Number(a1Row.ratio_geomean_fe3_fe2)).toBeCloseTo(a1.ratio!.mean, 9);
+    expect(tanksCsv.find((r) => r.tank === 'A2')!.band_fe3_fe2).toBe('8-25 then 20-40');
+    expect((await csv('alarms')).map((r) => [r.tank, r.priority])).toEqual([['A1', '1'], ['B1', '2'], ['A2', '3']]);
+    expect((await csv('band-changes'))[0]!.what).toContain('8–25 → 20–40');
+    expect((await csv('calibrations')).map((r) => r.tank)).toEqual(['A1']);
   });
 
   it('when the shift is closed with a handover note, then the default digest is that shift with its log', async () => {

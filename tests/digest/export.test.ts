@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { toCsv } from '../../web/src/lib/csv.ts';
+import { csvText } from '../../api/src/lib/csv.ts';
 import { RAW_EXPORT_COLUMNS, ROLLUP_EXPORT_COLUMNS } from '../../shared/schemas/export.ts';
 import { createTestApi, type TestApi } from '../helpers/api.ts';
 import fs from 'node:fs';
@@ -86,9 +86,10 @@ describe('readings export', () => {
   });
 });
 
-describe('digest tables saved as CSV in the browser (web/src/lib/csv.ts)', () => {
+describe('the one CSV writer behind every export (api/src/lib/csv.ts)', () => {
+  // RFC 4180 quoting and CRLF records; formula-like text escaped as OWASP "CSV Injection" advises.
   it('when text starts like a formula, then it is prefixed with an apostrophe; numbers and quotes are kept', () => {
-    const text = toCsv(['a', 'b', 'c', 'd'], [['=SUM(A1)', '+1', -12.5, 'say "hi", then go'], ['@x', '-x', null, 'plain']]);
+    const text = csvText([['a', 'b', 'c', 'd'], ['=SUM(A1)', '+1', -12.5, 'say "hi", then go'], ['@x', '-x', null, 'plain']]);
     expect(text).toBe(`a,b,c,d\r\n'=SUM(A1),'+1,-12.5,"say ""hi"", then go"\r\n'@x,'-x,,plain\r\n`);
   });
 });

@@ -1,8 +1,9 @@
 /**
  * Uploads and exports: oversized, wrong type and path-like file
  * names on the two upload routes (assay CSV, historical readings import), and CSV formula
- * injection (OWASP "CSV Injection": cells starting with = + - @ tab CR) in every CSV the API
- * streams — readings export and import rejections — plus the digest tables the browser saves.
+ * injection (OWASP "CSV Injection": cells starting with = + - @ tab CR) in the readings export,
+ * the import rejections and the one CSV writer itself (tests/security/csv-exports.test.ts covers
+ * every export route).
  */
 import { existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import os from 'node:os';
@@ -14,7 +15,7 @@ import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../api/src/app.ts';
-import { toCsv } from '../../web/src/lib/csv.ts';
+import { csvText } from '../../api/src/lib/csv.ts';
 import { ASSAY_CSV_MAX_BYTES } from '../../shared/schemas/assays.ts';
 import { createTestApi, type TestApi } from '../helpers/api.ts';
 
@@ -123,11 +124,11 @@ describe('CSV formula injection', () => {
     expect(cells.some((x) => x.startsWith("'=cmd"))).toBe(true);
   });
 
-  it('when any text of a digest table starts like a formula, then the CSV the browser saves escapes it; numbers stay numbers', () => {
+  it('when any text starts like a formula, then the one CSV writer escapes it; numbers stay numbers', () => {
     fc.assert(fc.property(fc.constantFrom('=', '+', '-', '@', '\t', '\r', '\uFF1D'), fc.string(), (lead, rest) => {
-      const [, [cell]] = parse(toCsv(['h'], [[lead + rest]]), { relax_column_count: true }) as string[][];
+      const [, [cell]] = parse(csvText([['h'], [lead + rest]]), { relax_column_count: true }) as string[][];
       return cell!.startsWith("'");
     }), { numRuns: 2_000 });
-    expect(toCsv(['h'], [[-12.5]])).toBe('h\r\n-12.5\r\n');
+    expect(csvText([['h'], [-12.5]])).toBe('h\r\n-12.5\r\n');
   });
 });

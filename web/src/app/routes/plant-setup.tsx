@@ -1,6 +1,7 @@
 import { useEffect } from 'react';
 import { Link, useLocation, useSearchParams } from 'react-router-dom';
 import { AlarmHandlingPanel } from '../../features/admin/components/alarm-handling-panel';
+import { AuditTrailPanel } from '../../features/admin/components/audit-trail-panel';
 import { IngestHealthPanel } from '../../features/admin/components/ingest-health-panel';
 import { SimulatorPanel } from '../../features/admin/components/simulator-panel';
 import { UsersPanel } from '../../features/admin/components/users-panel';
@@ -18,6 +19,7 @@ const TABS = [
   { id: 'dead-letters', label: 'Dead letters and conflicts', admin: false },
   { id: 'sparkplug', label: 'Sparkplug B edge nodes', admin: true },
   { id: 'people', label: 'People and services', admin: true },
+  { id: 'audit', label: 'Audit trail', admin: true },
 ] as const;
 
 function SparkplugSection() {
@@ -79,6 +81,7 @@ function PlantSetup() {
       {tab === 'dead-letters' && <DeadLettersPanel siteTags={plant.data?.sites.map((s) => s.tag) ?? []} />}
       {tab === 'sparkplug' && isAdmin && <SparkplugSection />}
       {tab === 'people' && isAdmin && <PeopleAndServices userId={user?.id ?? -1} />}
+      {tab === 'audit' && isAdmin && <AuditTrailPanel timeZone={plant.data?.sites[0]?.timeZone ?? 'UTC'} />}
     </div>
   );
 }

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { DigestResponse } from '@shared/schemas/digest';
+import type { DigestResponse, DigestTableName } from '@shared/schemas/digest';
 import { api, withQuery } from '../../../lib/api-client';
 import { digestKeys } from './digest-keys';
 
@@ -8,6 +8,15 @@ export type DigestParams = { shiftStart?: string; from?: string; to?: string };
 
 export function getDigest(p: DigestParams, signal?: AbortSignal): Promise<DigestResponse> {
   return api.get<DigestResponse>(withQuery('/api/digest', p), { signal });
+}
+
+/**
+ * One table of the digest on screen as a CSV download, written by the server's one CSV writer.
+ * A shift is pinned by its start, so "the last closed shift" cannot move between view and download.
+ */
+export function digestCsvUrl(d: Pick<DigestResponse, 'site' | 'shift'>, p: DigestParams, table: DigestTableName): string {
+  const period = d.shift ? { shiftStart: d.shift.startsAt } : { from: p.from, to: p.to };
+  return withQuery('/api/digest/export', { siteId: d.site.id, ...period, table });
 }
 
 export const digestQueryOptions = (p: DigestParams) =>

@@ -4,7 +4,7 @@ import { AlarmTimeline } from './alarm-timeline';
 import { alarmKindLabel, formatSeconds } from './digest-format';
 import { DigestTable, type Column } from './digest-table';
 
-type Props = { alarms: AlarmFigures; fromMs: number; toMs: number; timeZone: string; fileStem: string };
+type Props = { alarms: AlarmFigures; fromMs: number; toMs: number; timeZone: string; csvHref: string };
 
 function Figure({ label, value }: { label: string; value: string }) {
   return (
@@ -16,24 +16,24 @@ function Figure({ label, value }: { label: string; value: string }) {
 }
 
 /** Alarm counts, response times and the timeline; one row per alarm in the table. */
-export function AlarmSection({ alarms, fromMs, toMs, timeZone, fileStem }: Props) {
+export function AlarmSection({ alarms, fromMs, toMs, timeZone, csvHref }: Props) {
   const at = (iso: string | null) => (iso ? formatDateTime(iso, timeZone) : '—');
   const ackS = (a: AlarmSpan) => (a.acknowledgedAt ? (Date.parse(a.acknowledgedAt) - Date.parse(a.raisedAt)) / 1000 : null);
   const columns: Column<AlarmSpan>[] = [
-    { header: 'Priority', cell: (a) => <span className="font-bold">P{a.priority}</span>, csv: [['priority', (a) => a.priority]] },
-    { header: 'Tank', cell: (a) => a.tankTag, csv: [['tank', (a) => a.tankTag]] },
-    { header: 'Alarm', cell: (a) => alarmKindLabel(a.kind), csv: [['alarm', (a) => a.kind]] },
-    { header: 'Raised', cell: (a) => at(a.raisedAt), csv: [['raised_utc', (a) => a.raisedAt]] },
-    { header: 'Acknowledged', cell: (a) => at(a.acknowledgedAt), csv: [['acknowledged_utc', (a) => a.acknowledgedAt]] },
-    { header: 'Time to acknowledge', numeric: true, cell: (a) => formatSeconds(ackS(a)), csv: [['time_to_acknowledge_s', ackS]] },
-    { header: 'Shelved', cell: (a) => at(a.shelvedAt), csv: [['shelved_utc', (a) => a.shelvedAt]] },
-    { header: 'Cleared', cell: (a) => at(a.clearedAt), csv: [['cleared_utc', (a) => a.clearedAt]] },
+    { header: 'Priority', cell: (a) => <span className="font-bold">P{a.priority}</span> },
+    { header: 'Tank', cell: (a) => a.tankTag },
+    { header: 'Alarm', cell: (a) => alarmKindLabel(a.kind) },
+    { header: 'Raised', cell: (a) => at(a.raisedAt) },
+    { header: 'Acknowledged', cell: (a) => at(a.acknowledgedAt) },
+    { header: 'Time to acknowledge', numeric: true, cell: (a) => formatSeconds(ackS(a)) },
+    { header: 'Shelved', cell: (a) => at(a.shelvedAt) },
+    { header: 'Cleared', cell: (a) => at(a.clearedAt) },
   ];
   if (!alarms.available) {
-    return <DigestTable title="Alarms" fileName={`${fileStem}-alarms.csv`} columns={columns} rows={[]} empty="Alarm records are not available on this server yet." />;
+    return <DigestTable title="Alarms" csvHref={csvHref} columns={columns} rows={[]} empty="Alarm records are not available on this server yet." />;
   }
   return (
-    <DigestTable title="Alarms" fileName={`${fileStem}-alarms.csv`} columns={columns} rows={alarms.timeline} empty="No alarms in this period.">
+    <DigestTable title="Alarms" csvHref={csvHref} columns={columns} rows={alarms.timeline} empty="No alarms in this period.">
       <div className="grid grid-cols-3 gap-2 md:grid-cols-7 print:grid-cols-7" data-testid="alarm-figures">
         <Figure label="Raised" value={String(alarms.raised)} />
         <Figure label="Acknowledged" value={String(alarms.acknowledged)} />

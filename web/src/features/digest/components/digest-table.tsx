@@ -1,25 +1,22 @@
 import type { ReactNode } from 'react';
-import type { CsvCell } from '../../../lib/csv';
-import { CsvDownloadButton } from './csv-download-button';
+import { CsvLink } from '../../../components/ui/csv-link';
 
 export type Column<T> = {
   header: string;
   cell: (row: T) => ReactNode;
-  /** CSV columns this one becomes, header with its unit (e.g. "orp_mean_mv") and value: a "min–max" cell splits in two. */
-  csv: Array<[string, (row: T) => CsvCell]>;
   numeric?: boolean;
 };
 
-type Props<T> = { title: string; fileName: string; columns: Column<T>[]; rows: T[]; empty: string; note?: ReactNode; children?: ReactNode };
+type Props<T> = { title: string; csvHref: string; columns: Column<T>[]; rows: T[]; empty: string; note?: ReactNode; children?: ReactNode };
 
-/** A digest section: title, optional picture, the table, and its CSV download. */
-export function DigestTable<T>({ title, fileName, columns, rows, empty, note, children }: Props<T>) {
+/** A digest section: title, optional picture, the table, and its CSV download (the same table from the server). */
+export function DigestTable<T>({ title, csvHref, columns, rows, empty, note, children }: Props<T>) {
   return (
     <section aria-label={title} className="digest-section rounded-lg border border-line bg-panel">
       <header className="flex items-center justify-between gap-3 border-b border-line px-4 py-2">
         <h2 className="text-base font-bold">{title}</h2>
         {rows.length > 0 && (
-          <CsvDownloadButton fileName={fileName} header={columns.flatMap((c) => c.csv.map(([h]) => h))} rows={rows.map((r) => columns.flatMap((c) => c.csv.map(([, v]) => v(r))))} />
+          <CsvLink href={csvHref} label={`Download ${title} as CSV`}>CSV ↓</CsvLink>
         )}
       </header>
       <div className="flex flex-col gap-3 p-4">

@@ -1,8 +1,9 @@
 import { Link } from 'react-router-dom';
+import type { DigestTableName } from '@shared/schemas/digest';
 import { ErrorState, Loading } from '../../../components/ui/page-state';
 import { Notice } from '../../../components/ui/notice';
 import { formatDateTime, formatUtcOffset } from '../../../lib/format';
-import { useDigest } from '../api/get-digest';
+import { digestCsvUrl, useDigest } from '../api/get-digest';
 import { useDigestParams } from '../hooks/use-digest-params';
 import { AlarmSection } from './alarm-section';
 import { formatRange } from './digest-format';
@@ -26,7 +27,7 @@ export function DigestView() {
   const tz = d.site.timeZone;
   const fromMs = Date.parse(d.from);
   const toMs = Date.parse(d.to);
-  const stem = `shift-digest-${formatDateTime(d.from, tz).replace(/[ :]/g, '').slice(0, 13)}`;
+  const csv = (table: DigestTableName) => digestCsvUrl(d, params, table);
   const running = d.shift && d.shift.status !== 'closed';
 
   return (
@@ -49,14 +50,14 @@ export function DigestView() {
       <ShiftPicker timeZone={tz} value={params} onChange={setParams} />
       {running && <Notice tone="info">This shift is still running: figures go up to {formatDateTime(d.to, tz)}.</Notice>}
       {digest.isPlaceholderData && <Notice className="print:hidden">Loading the period you chose…</Notice>}
-      <TankSection tanks={d.tanks} fromMs={fromMs} toMs={toMs} fileStem={stem} />
-      <AlarmSection alarms={d.alarms} fromMs={fromMs} toMs={toMs} timeZone={tz} fileStem={stem} />
-      <LogSection entries={d.log} shift={d.shift} timeZone={tz} fileStem={stem} />
+      <TankSection tanks={d.tanks} fromMs={fromMs} toMs={toMs} csvHref={csv('tanks')} />
+      <AlarmSection alarms={d.alarms} fromMs={fromMs} toMs={toMs} timeZone={tz} csvHref={csv('alarms')} />
+      <LogSection entries={d.log} shift={d.shift} timeZone={tz} csvHref={csv('shift-log')} />
       <div className="grid gap-4 lg:grid-cols-2 print:grid-cols-1">
-        <EventSection title="Band changes" section={d.bandChanges} fileName={`${stem}-band-changes.csv`} empty="No band changes." timeZone={tz} />
-        <EventSection title="Calibrations" section={d.calibrations} fileName={`${stem}-calibrations.csv`} empty="No calibrations." timeZone={tz} />
-        <EventSection title="Assays" section={d.assays} fileName={`${stem}-assays.csv`} empty="No assays sampled." timeZone={tz} />
-        <EventSection title="Probe checks" section={d.probeChecks} fileName={`${stem}-probe-checks.csv`} empty="No probe checks." timeZone={tz} />
+        <EventSection title="Band changes" section={d.bandChanges} csvHref={csv('band-changes')} empty="No band changes." timeZone={tz} />
+        <EventSection title="Calibrations" section={d.calibrations} csvHref={csv('calibrations')} empty="No calibrations." timeZone={tz} />
+        <EventSection title="Assays" section={d.assays} csvHref={csv('assays')} empty="No assays sampled." timeZone={tz} />
+        <EventSection title="Probe checks" section={d.probeChecks} csvHref={csv('probe-checks')} empty="No probe checks." timeZone={tz} />
       </div>
       <p className="text-xs text-ink-muted">
         From 1-minute rollups: a minute counts by its geometric-mean ratio against the band in force then; minutes without readings count as no data.

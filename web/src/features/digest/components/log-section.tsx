@@ -2,14 +2,14 @@ import type { ShiftLogEntryView, ShiftView } from '@shared/schemas/shifts';
 import { formatDateTime } from '../../../lib/format';
 import { DigestTable, type Column } from './digest-table';
 
-type Props = { entries: ShiftLogEntryView[]; shift: ShiftView | null; timeZone: string; fileStem: string };
+type Props = { entries: ShiftLogEntryView[]; shift: ShiftView | null; timeZone: string; csvHref: string };
 
 /** The shift log as written, corrections marked, and the handover note that closed the shift. */
-export function LogSection({ entries, shift, timeZone, fileStem }: Props) {
+export function LogSection({ entries, shift, timeZone, csvHref }: Props) {
   const columns: Column<ShiftLogEntryView>[] = [
-    { header: 'When', cell: (e) => <span className="whitespace-nowrap tabular-nums">{formatDateTime(e.at, timeZone)}</span>, csv: [['at_utc', (e) => e.at]] },
-    { header: 'Who', cell: (e) => e.author.name, csv: [['author', (e) => e.author.name]] },
-    { header: 'Tank', cell: (e) => e.tank?.tag ?? '', csv: [['tank', (e) => e.tank?.tag ?? null], ['alarm_id', (e) => e.alarmId]] },
+    { header: 'When', cell: (e) => <span className="whitespace-nowrap tabular-nums">{formatDateTime(e.at, timeZone)}</span> },
+    { header: 'Who', cell: (e) => e.author.name },
+    { header: 'Tank', cell: (e) => e.tank?.tag ?? '' },
     {
       header: 'Entry',
       cell: (e) => (
@@ -19,11 +19,10 @@ export function LogSection({ entries, shift, timeZone, fileStem }: Props) {
           {e.editedAt && <span className="ml-1 text-xs text-ink-muted">(reworded before handover)</span>}
         </span>
       ),
-      csv: [['entry', (e) => e.body], ['corrects_entry', (e) => e.correctsId], ['entry_id', (e) => e.id]],
     },
   ];
   return (
-    <DigestTable title="Shift log" fileName={`${fileStem}-shift-log.csv`} columns={columns} rows={entries} empty="Nothing was written in the log.">
+    <DigestTable title="Shift log" csvHref={csvHref} columns={columns} rows={entries} empty="Nothing was written in the log.">
       {shift?.status === 'closed' && shift.handoverNote && (
         <blockquote className="rounded-md border-l-4 border-ink bg-panel-2 px-3 py-2" data-testid="handover-note">
           <div className="text-xs font-semibold text-ink-muted">

@@ -1,4 +1,4 @@
-import type { Stat, TankDigest } from '@shared/schemas/digest';
+import type { TankDigest } from '@shared/schemas/digest';
 import { Quantity } from '../../../components/ui/quantity';
 import { formatMv, formatRatio, formatTempC } from '../../../lib/format';
 import { FILL, Swatch } from './band-patterns';
@@ -7,7 +7,7 @@ import { DigestTable, type Column } from './digest-table';
 import { RatioSparkline } from './ratio-sparkline';
 import { TimeInBandBar } from './time-in-band-bar';
 
-type Props = { tanks: TankDigest[]; fromMs: number; toMs: number; fileStem: string };
+type Props = { tanks: TankDigest[]; fromMs: number; toMs: number; csvHref: string };
 
 const share = (k: 'inBand' | 'above' | 'below' | 'noData'): Column<TankDigest> => ({
   header: { inBand: 'In band', above: 'Above', below: 'Below', noData: 'No data' }[k],
@@ -18,11 +18,9 @@ const share = (k: 'inBand' | 'above' | 'below' | 'noData'): Column<TankDigest> =
       <div className="text-xs text-ink-muted">{formatMinutes(t.minutes[k])}</div>
     </>
   ),
-  csv: [[`${k === 'inBand' ? 'in_band' : k === 'noData' ? 'no_data' : k}_min`, (t) => t.minutes[k]],
-    [`${k === 'inBand' ? 'in_band' : k === 'noData' ? 'no_data' : k}_pct`, (t) => (t.minutes.total ? Number(((t.minutes[k] / t.minutes.total) * 100).toFixed(2)) : null)]],
 });
 
-const stat = (header: string, key: 'ratio' | 'orpMv' | 'tempC', unit: string, fmt: (v: number) => string, csvBase: string): Column<TankDigest> => ({
+const stat = (header: string, key: 'ratio' | 'orpMv' | 'tempC', unit: string, fmt: (v: number) => string): Column<TankDigest> => ({
   header, numeric: true,
   cell: (t) => (t[key] ? (
     <>
@@ -30,23 +28,21 @@ const stat = (header: string, key: 'ratio' | 'orpMv' | 'tempC', unit: string, fm
       <div className="text-xs text-ink-muted">{fmt(t[key]!.min)} to {fmt(t[key]!.max)}</div>
     </>
   ) : '—'),
-  csv: (['mean', 'min', 'max'] as const).map((m) => [`${csvBase.replace('{m}', key === 'ratio' && m === 'mean' ? 'geomean' : m)}`, (t: TankDigest) => (t[key] as Stat | null)?.[m] ?? null]),
 });
 
 const COLUMNS: Column<TankDigest>[] = [
-  { header: 'Tank', cell: (t) => <span className="font-semibold">{t.tag}</span>, csv: [['tank', (t) => t.tag], ['circuit', (t) => t.circuitTag]] },
-  { header: 'Band', cell: (t) => <span className="whitespace-nowrap">{t.bands.map((b) => `${formatRatio(b.low)}–${formatRatio(b.high)}`).join(' → ')}</span>,
-    csv: [['band_fe3_fe2', (t) => t.bands.map((b) => `${b.low}-${b.high}`).join(' then ')]] },
+  { header: 'Tank', cell: (t) => <span className="font-semibold">{t.tag}</span> },
+  { header: 'Band', cell: (t) => <span className="whitespace-nowrap">{t.bands.map((b) => `${formatRatio(b.low)}–${formatRatio(b.high)}`).join(' → ')}</span> },
   share('inBand'), share('above'), share('below'), share('noData'),
-  stat('Ratio (geo. mean)', 'ratio', '', formatRatio, 'ratio_{m}_fe3_fe2'),
-  stat('ORP', 'orpMv', 'mV', formatMv, 'orp_{m}_mv'),
-  stat('Temperature', 'tempC', '°C', formatTempC, 'temp_{m}_c'),
+  stat('Ratio (geo. mean)', 'ratio', '', formatRatio),
+  stat('ORP', 'orpMv', 'mV', formatMv),
+  stat('Temperature', 'tempC', '°C', formatTempC),
 ];
 
 /** Time in band per tank as bars and sparklines (what people look at), then the figures (what they quote). */
-export function TankSection({ tanks, fromMs, toMs, fileStem }: Props) {
+export function TankSection({ tanks, fromMs, toMs, csvHref }: Props) {
   return (
-    <DigestTable title="Tanks: time in band" fileName={`${fileStem}-tanks.csv`} columns={COLUMNS} rows={tanks} empty="No tanks on this site.">
+    <DigestTable title="Tanks: time in band" csvHref={csvHref} columns={COLUMNS} rows={tanks} empty="No tanks on this site.">
       <div className="flex flex-wrap gap-4">
         <Swatch fill={FILL.below} label="below band" />
         <Swatch fill={FILL.inBand} label="in band" />

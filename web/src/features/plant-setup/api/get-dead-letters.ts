@@ -1,13 +1,14 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { DeadLetterPage, DeadLetterQuery } from '@shared/schemas/dead-letters';
-import { api } from '../../../lib/api-client';
+import { api, withQuery } from '../../../lib/api-client';
 import { plantSetupKeys } from './plant-setup-keys';
 
 export function getDeadLetters(q: Partial<DeadLetterQuery>, signal?: AbortSignal): Promise<DeadLetterPage> {
-  const params = new URLSearchParams();
-  for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== '') params.set(k, String(v));
-  return api.get<DeadLetterPage>(`/api/dead-letters?${params.toString()}`, { signal });
+  return api.get<DeadLetterPage>(withQuery('/api/dead-letters', q), { signal });
 }
+
+/** Same filters as the screen, every matching dead letter as a CSV download (the browser sends the session cookie). */
+export const deadLettersCsvUrl = (q: Partial<DeadLetterQuery>) => withQuery('/api/dead-letters/export', { ...q, limit: undefined });
 
 export const deadLettersQueryOptions = (q: Partial<DeadLetterQuery>) =>
   queryOptions({ queryKey: plantSetupKeys.deadLetters(q), queryFn: ({ signal }) => getDeadLetters(q, signal), placeholderData: keepPreviousData });

@@ -2,9 +2,10 @@ import { useState } from 'react';
 import { DEAD_LETTER_KINDS, DEAD_LETTER_KIND_LABELS, type DeadLetterKind, type DeadLetterQuery } from '@shared/schemas/dead-letters';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorState, Loading } from '../../../components/ui/page-state';
+import { CsvLink } from '../../../components/ui/csv-link';
 import { Panel } from '../../../components/ui/panel';
 import { formMessage } from '../../../lib/form';
-import { useDeadLetters } from '../api/get-dead-letters';
+import { deadLettersCsvUrl, useDeadLetters } from '../api/get-dead-letters';
 
 type Filters = { site: string; gateway: string; probe: string; kind: string; from: string; to: string };
 const EMPTY: Filters = { site: '', gateway: '', probe: '', kind: '', from: '', to: '' };
@@ -30,7 +31,7 @@ export function DeadLettersPanel({ siteTags }: { siteTags: string[] }) {
 
   return (
     <div className="flex flex-col gap-4">
-      <Panel title="Filters">
+      <Panel title="Filters" actions={<CsvLink href={deadLettersCsvUrl(q)} />}>
         <div className="grid gap-3 p-4 sm:grid-cols-3 lg:grid-cols-6">
           <SelectField label="Site" value={filters.site} onChange={set('site')} options={[{ value: '', label: 'All' }, ...siteTags.map((t) => ({ value: t, label: t }))]} />
           <TextField label="Gateway" value={filters.gateway} onChange={set('gateway')} autoComplete="off" />
