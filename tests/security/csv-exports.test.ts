@@ -170,6 +170,13 @@ describe('every CSV export escapes formulas in every text column (OWASP "CSV Inj
     expectNoFormula(await fetchCsv('admin', '/api/audit/export'));
   });
 
+  it('when the first tank\'s tag is a formula, then the assay template CSV that names it escapes it', async () => {
+    expect((await one<{ id: number }>('SELECT MIN(id) AS id FROM tanks WHERE retired_at IS NULL')).id).toBe(planted.tankId);
+    const csv = await fetchCsv('operator', '/api/assays/template.csv');
+    expectNoFormula(csv);
+    expect(csv.rows.map((r) => r[0])).toEqual([`'${planted.tankTag}`, `'${planted.tankTag}`]);
+  });
+
   it('when every field of an imported file is a formula, then the import rejections CSV escapes each rejected line and reason', async () => {
     const lines = ['probe,time,orp,temp', ...TRIMMED.map((f, i) => [f, TRIMMED[(i + 1) % 4], TRIMMED[(i + 2) % 4], TRIMMED[(i + 3) % 4]].map((c) => `"${c.replace(/"/g, '""')}"`).join(','))];
     const up = await request(app).post('/api/readings/imports').set('Cookie', t.cookies.metallurgist).set('X-Ferrisight-Csrf', '1')

@@ -27,6 +27,9 @@ function changeLines(e: AuditEntryView): string[] {
     const keys = [...new Set([...Object.keys(b), ...Object.keys(a)])];
     return keys.filter((k) => JSON.stringify(b[k]) !== JSON.stringify(a[k])).map((k) => `${k}: ${show(b[k])} → ${show(a[k])}`);
   }
+  // A new record (or a removed one): its fields as recorded.
+  const only = b == null ? a : a == null ? b : undefined;
+  if (obj(only)) return Object.entries(only).map(([k, v]) => `${k}: ${show(v)}`);
   if (e.before == null && e.after == null) return [];
   return [e.before == null ? show(e.after) : `${show(e.before)} → ${show(e.after)}`];
 }
