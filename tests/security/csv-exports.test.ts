@@ -200,6 +200,20 @@ describe('new export routes: filters and bad input', () => {
     expect(csv.rows.map((r) => r[csv.header.indexOf('gateway')])).toEqual([`'${FORMULAS[3]} gw`]);
   });
 
+  it('when the audit trail is filtered by action and person, then the screen\'s list and the CSV hold the same entries', async () => {
+    expect((await send('admin', 'patch', `/api/plant-setup/tanks/${planted.tankId}`, { volumeM3: 12, reason: 'Volume re-measured' })).status).toBe(200);
+    const query = { action: 'tank', userId: t.users.admin };
+    const list = await request(app).get('/api/audit').query(query).set('Cookie', t.cookies.admin);
+    expect(list.status).toBe(200);
+    expect(list.body.total).toBeGreaterThan(0);
+    expect(list.body.entries.every((e: { action: string; user: { id: number } }) => e.action.startsWith('tank.') && e.user.id === t.users.admin)).toBe(true);
+    const csv = await fetchCsv('admin', '/api/audit/export', query);
+    expect(csv.rows.map((r) => Number(r[0]))).toEqual(list.body.entries.map((e: { id: number }) => e.id));
+    // 'tank' is a prefix of actions only at a dot: 'tanker.x' would not match.
+    const none = await request(app).get('/api/audit').query({ action: 'tan' }).set('Cookie', t.cookies.admin);
+    expect(none.body.total).toBe(0);
+  });
+
   it.each([
     ['/api/dead-letters/export', { kind: 'nope' }, 'kind'],
     ['/api/dead-letters/export', { from: '2026-12-04T10:00:00Z', to: '2026-12-04T09:00:00Z' }, 'from'],
