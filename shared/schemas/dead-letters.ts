@@ -40,14 +40,21 @@ const fromBeforeToIssue = { message: 'from must be before to', path: ['from'] };
 export const deadLetterQuerySchema = deadLetterFilters
   .extend({ limit: z.coerce.number().int().min(1).max(500).default(100) })
   .refine(fromBeforeTo, fromBeforeToIssue);
-/** The same filters for the CSV download, which streams every matching dead letter (no page limit). */
-export const deadLetterExportQuerySchema = deadLetterFilters.refine(fromBeforeTo, fromBeforeToIssue);
-export type DeadLetterFilters = z.infer<typeof deadLetterExportQuerySchema>;
+export type DeadLetterFilters = z.infer<typeof deadLetterFilters>;
+
+/** The same filters for a CSV download of either table, which streams every matching row (no page limit). */
+export const deadLetterExportQuerySchema = deadLetterFilters
+  .extend({ table: z.enum(['dead-letters', 'conflicts']).default('dead-letters') })
+  .refine(fromBeforeTo, fromBeforeToIssue);
+export type DeadLetterExportQuery = z.infer<typeof deadLetterExportQuerySchema>;
 export type DeadLetterQuery = z.infer<typeof deadLetterQuerySchema>;
 
-/** CSV columns of the dead-letter export, in order. */
+/** CSV columns of the dead-letter and conflict exports, in order. */
 export const DEAD_LETTER_EXPORT_COLUMNS = [
   'id', 'received_at_utc', 'gateway', 'site', 'probe', 'topic', 'kind', 'reason', 'payload_bytes', 'payload',
+] as const;
+export const CONFLICT_EXPORT_COLUMNS = [
+  'id', 'received_at_utc', 'site', 'probe', 'reading_time_utc', 'stored_orp_mv', 'stored_temp_c', 'incoming_orp_mv', 'incoming_temp_c', 'incoming_seq', 'source',
 ] as const;
 
 export type DeadLetterRow = {

@@ -29,9 +29,12 @@ describe.skipIf(!BASE_URL)('CSV downloads in a browser', () => {
     const { page, errors, context } = await signedInPage(browser, 'admin', { width: 1366, height: 900 });
     await page.goto(appUrl('/plant-setup?tab=dead-letters'));
     await screenReady(page);
-    const letters = await download(page, page.getByRole('link', { name: 'Export CSV' }));
+    const letters = await download(page, page.getByRole('link', { name: 'Download dead letters as CSV' }));
     expect(letters.name).toMatch(/^ferrisight-dead-letters-\d{8}\.csv$/);
     expect(letters.rows[0]).toEqual(['id', 'received_at_utc', 'gateway', 'site', 'probe', 'topic', 'kind', 'reason', 'payload_bytes', 'payload']);
+    const conflicts = await download(page, page.getByRole('link', { name: 'Download conflicts as CSV' }));
+    expect(conflicts.name).toMatch(/^ferrisight-conflicts-\d{8}\.csv$/);
+    expect(conflicts.rows[0]!.slice(0, 5)).toEqual(['id', 'received_at_utc', 'site', 'probe', 'reading_time_utc']);
 
     await page.goto(appUrl('/plant-setup?tab=audit'));
     await screenReady(page);
@@ -63,10 +66,10 @@ describe.skipIf(!BASE_URL)('CSV downloads in a browser', () => {
 
   it('when the audit trail and dead letters open on a 390 px phone, then nothing scrolls sideways and the export link shows', async () => {
     const { page, errors, context } = await signedInPage(browser, 'admin', { width: 390, height: 844 });
-    for (const tab of ['audit', 'dead-letters']) {
+    for (const [tab, link] of [['audit', 'Export CSV'], ['dead-letters', 'Download dead letters as CSV']]) {
       await page.goto(appUrl(`/plant-setup?tab=${tab}`));
       await screenReady(page);
-      await page.getByRole('link', { name: 'Export CSV' }).waitFor({ timeout: 20_000 });
+      await page.getByRole('link', { name: link }).waitFor({ timeout: 20_000 });
       expect(await overflowX(page)).toBe(0);
       await page.screenshot({ path: path.join(SHOTS, `plant-setup-${tab}-390.png`), fullPage: true });
     }

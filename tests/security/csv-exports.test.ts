@@ -156,6 +156,16 @@ describe('every CSV export escapes formulas in every text column (OWASP "CSV Inj
     expectNoFormula(csv);
     expectEscaped(csv, [...letters.flatMap((l) => [l.topic, l.payload.toString(), l.reason, l.gateway]), FORMULAS[4], FORMULAS[5]]);
     expect(csv.rows.map((r) => r[csv.header.indexOf('payload_bytes')])).toContain(String(letters[0]!.payload.length));
+
+    // Conflicts, the screen's other table: site and probe tags from the plant, the sender as recorded.
+    const at = new Date(Date.now() - 120_000);
+    await sql(`INSERT INTO reading_conflicts (probe_id, ts, stored_orp_mv, stored_temp_c, incoming_orp_mv, incoming_temp_c, incoming_seq, source, received_at, fingerprint)
+      VALUES (?, ?, -101.5, 40, -99, 40, 7, ?, ?, RANDOM_BYTES(32))`, [planted.probeId, at, `${FORMULAS[3]} sender`, at]);
+    const conflicts = await fetchCsv('engineer', '/api/dead-letters/export', { table: 'conflicts', from, to: to() });
+    expect(conflicts.rows).toHaveLength(1);
+    expectNoFormula(conflicts);
+    expectEscaped(conflicts, [planted.siteTag, planted.probeTag, `${FORMULAS[3]} sender`]);
+    expect(conflicts.rows[0]![conflicts.header.indexOf('stored_orp_mv')]).toBe('-101.5');
   });
 
   it('when a change\'s reason, the new value and the person\'s name and e-mail are formulas, then the audit trail CSV escapes each', async () => {
@@ -216,6 +226,7 @@ describe('new export routes: filters and bad input', () => {
 
   it.each([
     ['/api/dead-letters/export', { kind: 'nope' }, 'kind'],
+    ['/api/dead-letters/export', { table: 'users' }, 'table'],
     ['/api/dead-letters/export', { from: '2026-12-04T10:00:00Z', to: '2026-12-04T09:00:00Z' }, 'from'],
     ['/api/audit/export', { userId: 'x' }, 'userId'],
     ['/api/audit', { limit: 0 }, 'limit'],

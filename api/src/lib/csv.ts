@@ -32,25 +32,30 @@ export function csvAttachment(res: Response, fileName: string): void {
   res.setHeader('Cache-Control', 'no-store');
 }
 
+/** A CSV download read row by row: its file name, columns, a row stream on a dedicated connection, and how a database row becomes cells. */
+export type CsvExport = {
+  fileName: string;
+  columns: readonly string[];
+  source: { conn: PoolConnection; rows: Readable };
+  shape?: (row: unknown[]) => unknown[];
+};
+
 /**
- * Streams rows read on a dedicated connection as a CSV download, a few rows in memory at a time.
- * `shape` turns a database row (array) into the cells of one line. The connection is released at
- * the end, or dropped when the client goes away or the query fails (a half-read result set
- * would block it); once the first bytes left, a failure cuts the response so the file is
- * visibly incomplete.
+ * Streams an export as a CSV download, a few rows in memory at a time. The connection is
+ * released at the end, or dropped when the client goes away or the query fails (a half-read
+ * result set would block it); once the first bytes left, a failure cuts the response so the
+ * file is visibly incomplete.
  */
-export async function sendCsvRows(
-  res: Response, fileName: string, columns: readonly string[],
-  source: { conn: PoolConnection; rows: Readable }, shape: (row: unknown[]) => unknown[] = (row) => row,
-): Promise<void> {
-  csvAttachment(res, fileName);
+export async function sendCsvRows(res: Response, x: CsvExport): Promise<void> {
+  csvAttachment(res, x.fileName);
+  const shape = x.shape ?? ((row: unknown[]) => row);
   const shaper = new Transform({ objectMode: true, transform: (row: unknown[], _enc, done) => done(null, shape(row)) });
   try {
-    await pipeline(source.rows, shaper, csvStream([...columns]), res);
-    await source.conn.release();
+    await pipeline(x.source.rows, shaper, csvStream([...x.columns]), res);
+    await x.source.conn.release();
   } catch (err) {
-    source.conn.destroy();
-    if ((err as NodeJS.ErrnoException).code !== 'ERR_STREAM_PREMATURE_CLOSE') logger.error({ err, fileName }, 'CSV export failed mid-stream');
+    x.source.conn.destroy();
+    if ((err as NodeJS.ErrnoException).code !== 'ERR_STREAM_PREMATURE_CLOSE') logger.error({ err, fileName: x.fileName }, 'CSV export failed mid-stream');
     res.destroy();
   }
 }

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { AUDIT_EXPORT_COLUMNS, auditExportQuerySchema, auditQuerySchema } from '../../../../shared/schemas/audit.ts';
+import { auditExportQuerySchema, auditQuerySchema } from '../../../../shared/schemas/audit.ts';
 import { sendCsvRows } from '../../lib/csv.ts';
 import { requireRole } from '../../middleware/auth.ts';
 import { queryParams } from '../../middleware/validate.ts';
@@ -14,8 +14,7 @@ export function auditTrailRouter(): Router {
   });
   // The screen's filters, every matching entry (the screen shows the newest 100).
   r.get('/export', allowed, async (req, res) => {
-    const q = queryParams(auditExportQuerySchema, req);
-    await sendCsvRows(res, svc.exportFileName(q), AUDIT_EXPORT_COLUMNS, await svc.openExport(q), svc.exportRow);
+    await sendCsvRows(res, await svc.export(queryParams(auditExportQuerySchema, req)));
   });
   return r;
 }

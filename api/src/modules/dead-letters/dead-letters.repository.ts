@@ -81,14 +81,17 @@ export const deadLettersRepository = {
   },
 
   /**
-   * Every dead letter of the filter, newest first, as arrays in DEAD_LETTER_EXPORT_COLUMNS order,
-   * streamed on a dedicated connection the caller releases.
+   * Every dead letter (or conflict) of the filter, newest first, as arrays in the order of
+   * DEAD_LETTER_EXPORT_COLUMNS (CONFLICT_EXPORT_COLUMNS), streamed on a dedicated connection the caller releases.
    */
-  async openExport(q: DeadLetterFilters): Promise<{ conn: PoolConnection; rows: Readable }> {
-    const w = where(q, 'd');
+  async openExport(q: DeadLetterFilters, table: 'dead-letters' | 'conflicts'): Promise<{ conn: PoolConnection; rows: Readable }> {
+    const w = where(q, table === 'conflicts' ? 'c' : 'd');
+    const sql = table === 'conflicts'
+      ? `SELECT c.id, c.received_at, s.tag, p.tag, c.ts, c.stored_orp_mv, c.stored_temp_c, c.incoming_orp_mv, c.incoming_temp_c, c.incoming_seq, c.source
+           ${CONFLICT_FROM} ${w.sql} ORDER BY c.received_at DESC, c.id DESC`
+      : `SELECT id, received_at, gateway, site_tag, probe_tag, topic, reason_kind, reason, payload_bytes, payload
+           FROM dead_letters d ${w.sql} ORDER BY received_at DESC, id DESC`;
     const conn = await rawPool(Site.sequelize!).getConnection();
-    const sql = `SELECT id, received_at, gateway, site_tag, probe_tag, topic, reason_kind, reason, payload_bytes, payload
-                   FROM dead_letters d ${w.sql} ORDER BY received_at DESC, id DESC`;
     return { conn, rows: conn.queryStream({ sql, namedPlaceholders: true, rowsAsArray: true }, w.replacements) };
   },
 };

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { DEAD_LETTER_EXPORT_COLUMNS, deadLetterExportQuerySchema, deadLetterQuerySchema, type DeadLetterPage } from '../../../../shared/schemas/dead-letters.ts';
+import { deadLetterExportQuerySchema, deadLetterQuerySchema, type DeadLetterPage } from '../../../../shared/schemas/dead-letters.ts';
 import { sendCsvRows } from '../../lib/csv.ts';
 import { requireRole } from '../../middleware/auth.ts';
 import { queryParams } from '../../middleware/validate.ts';
@@ -13,11 +13,9 @@ export function deadLettersRouter(opts: { retentionDays: number }): Router {
     const page: DeadLetterPage = await deadLettersService.page(queryParams(deadLetterQuerySchema, req), opts.retentionDays);
     res.json(page);
   });
-  // The screen's filters, every matching dead letter (the screen shows the newest 100).
+  // The screen's filters, every matching dead letter or conflict (the screen shows the newest 100 of each).
   r.get('/export', allowed, async (req, res) => {
-    const q = queryParams(deadLetterExportQuerySchema, req);
-    const source = await deadLettersService.openExport(q);
-    await sendCsvRows(res, deadLettersService.exportFileName(q), DEAD_LETTER_EXPORT_COLUMNS, source, deadLettersService.exportRow);
+    await sendCsvRows(res, await deadLettersService.export(queryParams(deadLetterExportQuerySchema, req)));
   });
   return r;
 }

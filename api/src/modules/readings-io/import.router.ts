@@ -52,7 +52,7 @@ export function importRouter(o: ImportRouterOptions): Router {
   });
   r.get('/imports/:id/rejections', allowed, async (req, res) => {
     const { id } = params(importIdParamSchema, req);
-    await sendCsvRows(res, `ferrisight-import-${id}-rejected-rows.csv`, ['line', 'reason', 'content'], await importService.rejections(id));
+    await sendCsvRows(res, { fileName: `ferrisight-import-${id}-rejected-rows.csv`, columns: ['line', 'reason', 'content'], source: await importService.rejections(id) });
   });
   return r;
 }

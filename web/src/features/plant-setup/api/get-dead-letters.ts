@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { DeadLetterPage, DeadLetterQuery } from '@shared/schemas/dead-letters';
+import type { DeadLetterExportQuery, DeadLetterPage, DeadLetterQuery } from '@shared/schemas/dead-letters';
 import { api, withQuery } from '../../../lib/api-client';
 import { plantSetupKeys } from './plant-setup-keys';
 
@@ -7,8 +7,9 @@ export function getDeadLetters(q: Partial<DeadLetterQuery>, signal?: AbortSignal
   return api.get<DeadLetterPage>(withQuery('/api/dead-letters', q), { signal });
 }
 
-/** Same filters as the screen, every matching dead letter as a CSV download (the browser sends the session cookie). */
-export const deadLettersCsvUrl = (q: Partial<DeadLetterQuery>) => withQuery('/api/dead-letters/export', { ...q, limit: undefined });
+/** Same filters as the screen, every matching dead letter (or conflict) as a CSV download (the browser sends the session cookie). */
+export const deadLettersCsvUrl = (q: Partial<DeadLetterQuery>, table: DeadLetterExportQuery['table']) =>
+  withQuery('/api/dead-letters/export', { ...q, limit: undefined, table });
 
 export const deadLettersQueryOptions = (q: Partial<DeadLetterQuery>) =>
   queryOptions({ queryKey: plantSetupKeys.deadLetters(q), queryFn: ({ signal }) => getDeadLetters(q, signal), placeholderData: keepPreviousData });

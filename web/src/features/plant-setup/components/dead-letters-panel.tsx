@@ -31,7 +31,7 @@ export function DeadLettersPanel({ siteTags }: { siteTags: string[] }) {
 
   return (
     <div className="flex flex-col gap-4">
-      <Panel title="Filters" actions={<CsvLink href={deadLettersCsvUrl(q)} />}>
+      <Panel title="Filters">
         <div className="grid gap-3 p-4 sm:grid-cols-3 lg:grid-cols-6">
           <SelectField label="Site" value={filters.site} onChange={set('site')} options={[{ value: '', label: 'All' }, ...siteTags.map((t) => ({ value: t, label: t }))]} />
           <TextField label="Gateway" value={filters.gateway} onChange={set('gateway')} autoComplete="off" />
@@ -49,7 +49,7 @@ export function DeadLettersPanel({ siteTags }: { siteTags: string[] }) {
             {Object.keys(counts!.byKind).length > 0 && ` (${(Object.entries(counts!.byKind) as Array<[DeadLetterKind, number]>).map(([k, n]) => `${DEAD_LETTER_KIND_LABELS[k]} ${n}`).join(', ')})`}
             {' '}· each kept {page.data.retention.deadLetterDays} days, and a message sent again is kept once
           </p>
-          <Panel title="Dead letters">
+          <Panel title="Dead letters" actions={<CsvLink href={deadLettersCsvUrl(q, 'dead-letters')} label="Download dead letters as CSV" />}>
             <div className="overflow-x-auto">
               <table className="w-full text-left text-sm">
                 <thead><tr className="border-b border-line"><th className="p-2">Received</th><th className="p-2">Gateway</th><th className="p-2">Topic</th><th className="p-2">Reason</th><th className="p-2">Payload</th></tr></thead>
@@ -69,7 +69,7 @@ export function DeadLettersPanel({ siteTags }: { siteTags: string[] }) {
               {page.data.deadLetters.length === 0 && <p className="p-4 text-ink-muted">None for these filters.</p>}
             </div>
           </Panel>
-          <Panel title="Conflicts">
+          <Panel title="Conflicts" actions={<CsvLink href={deadLettersCsvUrl(q, 'conflicts')} label="Download conflicts as CSV" />}>
             <div className="overflow-x-auto">
               <table className="w-full text-left text-sm">
                 <thead><tr className="border-b border-line"><th className="p-2">Received</th><th className="p-2">Probe</th><th className="p-2">Reading time</th><th className="p-2">Stored</th><th className="p-2">Arrived</th><th className="p-2">From</th></tr></thead>
