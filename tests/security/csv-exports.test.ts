@@ -32,7 +32,7 @@ let app: Express;
 const dataDir = mkdtempSync(path.join(os.tmpdir(), 'fs-csv-exports-'));
 const planted = {} as {
   siteTag: string; circuitTag: string; tankTag: string; tankName: string; probeTag: string; names: Record<Role, string>;
-  tankId: number; probeId: number; logBody: string; bandReason: string; assayMethod: string; email: string;
+  tankId: number; probeId: number; logBody: string; bandReason: string; assayMethod: string; calibrationReason: string; email: string;
 };
 const from = new Date(Date.now() - 3 * 3_600_000).toISOString();
 const to = () => new Date(Date.now() + 60_000).toISOString();
@@ -76,7 +76,7 @@ beforeAll(async () => {
     tankId: tank.tankId, probeId: tank.probeId,
     siteTag: `${FORMULAS[0]} s`, circuitTag: `${FORMULAS[1]} c`, tankTag: `${FORMULAS[3]} t`, tankName: `${FORMULAS[4]} tank`, probeTag: `${FORMULAS[5]} p`,
     names: Object.fromEntries(ROLES.map((r, i) => [r, `${FORMULAS[i % FORMULAS.length]} ${r}`])) as Record<Role, string>,
-    logBody: `${TRIMMED[2]} log`, bandReason: `${TRIMMED[0]} band`, assayMethod: `${TRIMMED[3]} method`, email: '=admin@test.example',
+    logBody: `${TRIMMED[2]} log`, bandReason: `${TRIMMED[0]} band`, assayMethod: `${TRIMMED[3]} method`, calibrationReason: `${FORMULAS[5]} refit`, email: '=admin@test.example',
   });
   // Names and tags straight into the tables: a tab or CR at the start survives only there.
   await sql('UPDATE sites SET tag = ?, name = ? WHERE id = ?', [planted.siteTag, FORMULAS[2], tank.siteId]);
@@ -96,6 +96,9 @@ beforeAll(async () => {
   expect(assay.status, assay.text).toBe(201);
   const check = await send('metallurgist', 'post', '/api/probe-checks', { probeId: tank.probeId, standard: 'zobell', tempC: 25, readingMv: 200 });
   expect(check.status, check.text).toBe(201);
+  // A calibration as the workbench records it (its fit needs assays; the row is what the digest reads).
+  await sql(`INSERT INTO calibrations (tank_id, version, formal_potential_v, formal_coeff_v_per_k, valid_from, reason, created_by, created_at)
+    VALUES (?, 99, 0.69, 0.0009, ?, ?, ?, ?)`, [tank.tankId, new Date(Date.now() - 30 * 60_000), planted.calibrationReason, t.users.engineer, new Date(Date.now() - 30 * 60_000)]);
   const def = await one<{ id: number }>('SELECT id FROM alarm_definitions WHERE tank_id = ? ORDER BY id LIMIT 1', [tank.tankId]);
   const act = await applyAction(t.sequelize, { definitionId: def.id, action: 'activate', at: new Date(Date.now() - 60_000), actor: { userId: null, name: null, how: 'automatic' } });
   expect(act.ok).toBe(true);
@@ -127,18 +130,19 @@ describe('every CSV export escapes formulas in every text column (OWASP "CSV Inj
     expect(csv.rows.map((r) => r[csv.header.indexOf('orp_mv')])).toContain('-12.5');
   });
 
-  it('when tags, names, the log, a band reason, an assay method and a probe tag are formulas, then every digest table CSV escapes them', async () => {
+  it('when tags, names, the log, band and calibration reasons, an assay method and a probe tag are formulas, then every digest table CSV escapes them', async () => {
     const cells: string[][] = [];
     for (const table of DIGEST_TABLES) {
       const csv = await fetchCsv('supervisor', '/api/digest/export', { table, from, to: to() });
+      expect(csv.rows.length, table).toBeGreaterThan(0);
       expectNoFormula(csv);
       cells.push(...csv.rows);
     }
     const all = { rows: cells };
-    expectEscaped(all, [planted.tankTag, planted.tankName, planted.circuitTag, planted.names.operator, planted.names.metallurgist, planted.logBody]);
+    expectEscaped(all, [planted.tankTag, planted.tankName, planted.circuitTag, planted.names.operator, planted.names.metallurgist, planted.names.engineer, planted.logBody]);
     // Texts quoted inside a summary sentence are not at the start of a cell, and stay as written.
     const flat = cells.flat().join('\n');
-    for (const v of [planted.bandReason, planted.assayMethod]) expect(flat).toContain(v);
+    for (const v of [planted.bandReason, planted.assayMethod, planted.calibrationReason]) expect(flat).toContain(v);
     expect(flat).toContain(`'${planted.probeTag} in zobell standard`);
   });
 
