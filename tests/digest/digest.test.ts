@@ -159,7 +159,8 @@ describe('shift digest', () => {
       const res = await get(`/api/digest/export?shiftStart=${encodeURIComponent(shift.startsAt)}&table=${table}`, 'operator');
       expect(res.status, res.text).toBe(200);
       expect(res.headers['content-disposition']).toMatch(new RegExp(`shift-digest-.*-${table}\\.csv`));
-      return parse(res.text, { columns: true }) as Array<Record<string, string>>;
+      expect(res.text.startsWith('\uFEFF'), 'byte-order mark').toBe(true);
+      return parse(res.text, { columns: true, bom: true }) as Array<Record<string, string>>;
     };
     const tanksCsv = await csv('tanks');
     expect(tanksCsv.map((r) => r.tank)).toEqual(d.tanks.map((x) => x.tag));

@@ -15,7 +15,7 @@ import { appUrl, BASE_URL, launchBrowser, overflowX, screenReady, SHOTS, signedI
 async function download(page: Page, link: ReturnType<Page['getByRole']>): Promise<{ name: string; rows: string[][] }> {
   const [file] = await Promise.all([page.waitForEvent('download', { timeout: 20_000 }), link.click()]);
   const saved = await file.path();
-  return { name: file.suggestedFilename(), rows: parse(fs.readFileSync(saved!, 'utf8')) as string[][] };
+  return { name: file.suggestedFilename(), rows: parse(fs.readFileSync(saved!, 'utf8'), { bom: true }) as string[][] };
 }
 
 describe.skipIf(!BASE_URL)('CSV downloads in a browser', () => {

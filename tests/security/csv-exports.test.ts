@@ -49,7 +49,7 @@ async function fetchCsv(role: Role, url: string, query: Record<string, string | 
   expect(res.status, res.text).toBe(200);
   expect(res.headers['content-type']).toMatch(/^text\/csv/);
   expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?[\w.-]+\.csv"?$/);
-  const [header, ...rows] = parse(res.text) as string[][];
+  const [header, ...rows] = parse(res.text, { bom: true }) as string[][];
   return { header: header!, rows, text: res.text };
 }
 

@@ -16,9 +16,12 @@ const OPTIONS: Options = { escape_formulas: true, record_delimiter: 'windows' };
 
 export const CSV_TYPE = 'text/csv; charset=utf-8';
 
-/** A whole CSV from rows, the first row being the header. */
-export function csvText(rows: unknown[][]): string {
-  return stringifySync(rows, OPTIONS);
+/**
+ * A whole CSV from rows, the first row being the header. `bom` starts it with a byte-order
+ * mark, so spreadsheet programs read text such as Fe²⁺ or 8–25 as UTF-8.
+ */
+export function csvText(rows: unknown[][], opts: { bom?: boolean } = {}): string {
+  return stringifySync(rows, { ...OPTIONS, bom: opts.bom ?? false });
 }
 
 /** A streaming writer of objects with these columns (header first). */

@@ -20,7 +20,8 @@ export function digestRouter(): Router {
     const { table, ...q } = queryParams(digestExportQuerySchema, req);
     const d = await digestService.digest(q);
     csvAttachment(res, digestFileName(d, table));
-    res.send(csvText(digestTableRows(d, table)));
+    // Summaries quote Fe²⁺, dashes and arrows: the byte-order mark keeps them readable in spreadsheets.
+    res.send(csvText(digestTableRows(d, table), { bom: true }));
   });
   return r;
 }
