@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 
 /**
  * A CSV download from the API: a plain link, so the browser streams the file to disk with the
- * session cookie and nothing is held in the page. The server writes every CSV (formula-escaped).
+ * sign-in cookie and nothing is held in the page. The server writes every CSV (formula-escaped).
  */
 export function CsvLink({ href, label, children = 'Export CSV' }: { href: string; label?: string; children?: ReactNode }) {
   return (

@@ -7,7 +7,7 @@ export function getAuditTrail(q: Partial<AuditQuery>, signal?: AbortSignal): Pro
   return api.get<AuditPage>(withQuery('/api/audit', q), { signal });
 }
 
-/** Same filters as the screen, every matching entry as a CSV download (the browser sends the session cookie). */
+/** Same filters as the screen, every matching entry as a CSV download (the browser sends the sign-in cookie). */
 export const auditTrailCsvUrl = (q: Partial<AuditQuery>) => withQuery('/api/audit/export', { ...q, limit: undefined });
 
 export const auditTrailQueryOptions = (q: Partial<AuditQuery>) =>

@@ -7,7 +7,7 @@ export function getDeadLetters(q: Partial<DeadLetterQuery>, signal?: AbortSignal
   return api.get<DeadLetterPage>(withQuery('/api/dead-letters', q), { signal });
 }
 
-/** Same filters as the screen, every matching dead letter (or conflict) as a CSV download (the browser sends the session cookie). */
+/** Same filters as the screen, every matching dead letter (or conflict) as a CSV download (the browser sends the sign-in cookie). */
 export const deadLettersCsvUrl = (q: Partial<DeadLetterQuery>, table: DeadLetterExportQuery['table']) =>
   withQuery('/api/dead-letters/export', { ...q, limit: undefined, table });
 
