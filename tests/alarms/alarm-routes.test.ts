@@ -190,6 +190,28 @@ describe('Alarm desk routes', () => {
     }
   });
 
+  it('when a window holds more alarms than one page of the list, then the history CSV still holds every one of them once', async () => {
+    const { def } = await raise('A4');
+    // 5,100 closed alarms of that definition, a minute apart, ten days ago (an old window no other test uses).
+    const start = Date.now() - 10 * 86_400_000;
+    const n = 5100;
+    await t.sequelize.query(
+      `INSERT INTO alarm_instances (definition_id, tank_id, priority, state, condition_active, opened_at, activated_at, closed_at)
+       WITH d (x) AS (SELECT 0 UNION ALL SELECT 1 UNION ALL SELECT 2 UNION ALL SELECT 3 UNION ALL SELECT 4
+                      UNION ALL SELECT 5 UNION ALL SELECT 6 UNION ALL SELECT 7 UNION ALL SELECT 8 UNION ALL SELECT 9),
+            seq (k) AS (SELECT a.x + 10 * b.x + 100 * c.x + 1000 * e.x FROM d a, d b, d c, d e)
+       SELECT ?, ?, 1, 'normal', 0, TIMESTAMPADD(MINUTE, k, ?), TIMESTAMPADD(MINUTE, k, ?), TIMESTAMPADD(SECOND, k * 60 + 30, ?) FROM seq WHERE k < ?`,
+      { replacements: [def, t.tanks.A4.id, new Date(start), new Date(start), new Date(start), n] },
+    );
+    const from = new Date(start - 60_000).toISOString();
+    const to = new Date(start + (n + 1) * 60_000).toISOString();
+    const csv = await get(`/api/alarms/history/export?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`);
+    const [header, ...data] = parse(csv.text) as string[][];
+    const ids = data.map((r) => r[header.indexOf('id')]);
+    expect(ids.length).toBe(n);
+    expect(new Set(ids).size).toBe(n);
+  }, 60_000);
+
   it('when figures are asked for, then they count the alarms of the window and carry their targets', async () => {
     const from = new Date(Date.now() - 3_600_000).toISOString();
     const res = await get(`/api/alarms/figures?from=${encodeURIComponent(from)}&to=${encodeURIComponent(new Date().toISOString())}`);

@@ -11,6 +11,9 @@ import { alarmsRepository as repo } from './alarms.repository.ts';
 import { definitionsRepository } from './definitions.repository.ts';
 import { applyAction, type ApplyInput } from './lifecycle.ts';
 
+/** Rows per query when the alarm history is exported whole. */
+const HISTORY_PAGE = 5000;
+
 type Who = Pick<SessionUser, 'id' | 'name'>;
 const onScreen = (u: Who) => ({ userId: u.id, name: u.name, how: 'screen' as const });
 
@@ -52,7 +55,14 @@ export const alarmsService = {
   history: (q: HistoryQuery) => repo.history(q),
 
   async historyCsv(q: HistoryQuery): Promise<string> {
-    const { alarms } = await repo.history({ ...q, limit: 5000, offset: 0 });
+    // Every alarm of the filter, a page at a time; an alarm opened meanwhile shifts the pages, so ids are kept once.
+    const byId = new Map<number, AlarmView>();
+    for (let offset = 0; ; offset += HISTORY_PAGE) {
+      const page = (await repo.history({ ...q, limit: HISTORY_PAGE, offset })).alarms;
+      for (const a of page) if (!byId.has(a.id)) byId.set(a.id, a);
+      if (page.length < HISTORY_PAGE) break;
+    }
+    const alarms = [...byId.values()];
     const ackS = (a: AlarmView) => (a.ackedAt && a.activatedAt ? Math.round((Date.parse(a.ackedAt) - Date.parse(a.activatedAt)) / 1000) : '');
     return csvText([
       ['id', 'site', 'circuit', 'tank', 'alarm', 'priority', 'opened_at_utc', 'activated_at_utc', 'acknowledged_at_utc', 'acknowledged_by', 'seconds_to_acknowledge', 'closed_at_utc', 'state', 'value_at_activation', 'limit', 'unit'],
