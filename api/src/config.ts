@@ -51,8 +51,8 @@ const schema = z.object({
   // Broker and ingest worker (ingest/broker.ts, ingest/worker.ts).
   MQTT_PORT: z.coerce.number().int().min(1).max(65535).default(8472),
   MQTT_MAX_CONNECTIONS: z.coerce.number().int().min(1).default(2000),
-  /** 'on': the embedded broker stores a device's QoS 1 message before its PUBACK (store-before-ack.ts); not ready, see README. */
-  MQTT_STORE_BEFORE_ACK: z.enum(['on', 'off']).default('off'),
+  /** 'on': the embedded broker stores a device's QoS 1 message on disk before its PUBACK (store-before-ack.ts); 'off': aedes's own order. */
+  MQTT_STORE_BEFORE_ACK: z.enum(['on', 'off']).default('on'),
   /** Folder for the broker's sessions, caught mail and uploads (the start script passes an absolute path). */
   FERRISIGHT_DATA_DIR: z.string().default('.data'),
   /** 'pipelined' acks after commit but keeps reading while a flush runs; 'serial' holds mqtt.js per message. */

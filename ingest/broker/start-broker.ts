@@ -13,7 +13,7 @@ import type { BrokerHealth } from '../../shared/schemas/ingest-health.ts';
 import { EdgeDeadLetters, screenMessage } from './edge-screen.ts';
 import { BROKER_HEALTH_TOPIC, SCREENED_TOPIC } from '../../shared/schemas/internal-topics.ts';
 import { GatewayConnections } from './gateway-connections.ts';
-import { drainStoredTopic, storeBeforeAck } from './store-before-ack.ts';
+import { StoreBeforeAck } from './store-before-ack.ts';
 import { IdentityDirectory, type Identity } from './identity.ts';
 import { limitPacketSize } from './packet-limit.ts';
 
@@ -37,7 +37,7 @@ export type BrokerOptions = {
    * site's own broker (MQTT_URL).
    */
   screenAtEdge?: boolean;
-  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (store-before-ack.ts; default false: not ready). */
+  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (store-before-ack.ts; default true). */
   storeBeforeAck?: boolean;
   log?: Logger;
 };
@@ -69,8 +69,11 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
   const edgeLetters = new EdgeDeadLetters(pool, log);
   const edge = opts.screenAtEdge === false ? null : edgeLetters;
 
+  const persistence = aedesPersistenceLevel(db);
+  // Set once the broker exists (its id names the stored keys); the hook runs only after that.
+  let storeFirst: StoreBeforeAck | null = null;
   const broker = await Aedes.createBroker({
-    persistence: aedesPersistenceLevel(db),
+    persistence,
     // A frozen subscriber must not stall delivery to everyone (at most 10 s): after 5 s
     // without draining it is disconnected, and its session keeps the messages. The ingest worker
     // stops reading while its queue is full (a slow database), so it may be cut too; it reconnects
@@ -139,7 +142,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
       }
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
       // With storeBeforeAck, a sound message is on disk in every persistent session before its PUBACK.
-      if (!letter) return opts.storeBeforeAck ? storeBeforeAck(broker, packet, done) : done();
+      if (!letter) return storeFirst ? storeFirst.store(packet, done) : done();
       edge!.add({ ...letter, gateway: identity.username }, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;
         done();
@@ -155,7 +158,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
     },
   });
 
-  if (opts.storeBeforeAck) drainStoredTopic(broker);
+  if (opts.storeBeforeAck !== false) storeFirst = new StoreBeforeAck(persistence, broker.id);
   // Health for Plant setup (retained, like the worker's), and a log line when something was refused.
   const startedAt = new Date().toISOString();
   let edgeLogged = 0;

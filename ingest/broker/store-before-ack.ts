@@ -1,32 +1,45 @@
-import type { Aedes, PublishPacket } from 'aedes';
-import { INTERNAL_PREFIX } from '../../shared/schemas/internal-topics.ts';
-
-/** Where a device's QoS 1 message goes once stored: nobody subscribes, so it costs one lookup. */
-export const STORED_TOPIC = `${INTERNAL_PREFIX}/edge/stored`;
+import type { PublishPacket } from 'aedes';
+import type { SessionStore } from 'aedes-persistence-level';
 
 /**
- * aedes 1.2 writes a QoS 1 PUBACK before it stores the message in the persistent sessions
- * (lib/handlers/publish.js), so a broker killed in between loses a message the device was
- * told is safe. From authorizePublish (a public hook, which runs before the PUBACK) this
- * publishes the message through broker.publish(), which writes it into every matching
- * clean: false session on disk and delivers it, and only then lets aedes go on: the PUBACK
- * then follows, and aedes's own publish goes to a topic nobody reads. QoS 2 needs none of
- * this: aedes stores it before its PUBREC.
+ * aedes 1.2 writes a QoS 1 PUBACK before it stores the message for the persistent sessions
+ * (lib/handlers/publish.js: PUBACK, then broker.publish → enqueueOffline), so a broker killed in
+ * between loses a message the device was told is safe.
+ *
+ * From authorizePublish (a public hook that runs before the PUBACK) this writes the message into
+ * every matching persistent session through the persistence's own interface
+ * (subscriptionsByTopic + outgoingEnqueueCombi, the calls aedes's enqueueOffline makes), under a
+ * broker id and counter it gives the packet. aedes then answers and publishes as usual: its
+ * Packet keeps that id and counter, so its own enqueue rewrites the same key with the same bytes
+ * and the live delivery updates that entry. The hook waits for one store write and nothing else.
+ *
+ * An earlier version published through broker.publish() from the hook; that call returns only
+ * once every online subscriber's socket has taken the message, so a device's PUBACK waited for
+ * the ingest worker to read. After a broker restart the worker's session backlog fills its socket,
+ * device publishes then held the emitter's slots while the worker's own PUBACKs and live values
+ * queued behind them: delivery stopped until the drain timeout cut the worker, again and again.
+ *
+ * QoS 2: aedes stores the packet in the sender's incoming store, then publishes, then sends
+ * PUBREC. A kill between the first two leaves it marked as received but in no session, and the
+ * device's re-send is then answered as a duplicate without being published. Storing for the
+ * sessions here first closes that too; a re-sent QoS 2 message may then reach the worker twice,
+ * and the readings store ignores exact repeats.
  */
-/**
- * Gives the stored topic one listener that answers on the next turn. With no listener at all
- * its messages would finish synchronously inside mqemitter's queue, one nested call per queued
- * message, and a long queue under load overflowed the stack (found by npm run bench:ack).
- */
-export function drainStoredTopic(broker: Aedes): void {
-  broker.subscribe(STORED_TOPIC, (_packet, cb) => setImmediate(cb), () => undefined);
-}
+export class StoreBeforeAck {
+  private counter = 0;
+  /** Distinct from aedes's own broker id, so these keys never meet the counter aedes keeps. */
+  private readonly brokerId: string;
 
-export function storeBeforeAck(broker: Aedes, packet: PublishPacket, done: (err?: Error | null) => void): void {
-  if (packet.qos !== 1) return done();
-  broker.publish({ cmd: 'publish', topic: packet.topic, payload: packet.payload, qos: 1, retain: false, dup: false }, (err) => {
-    if (err) return done(err);
-    packet.topic = STORED_TOPIC;
-    done();
-  });
+  constructor(private readonly sessions: SessionStore, brokerId: string) {
+    this.brokerId = `${brokerId}.device`;
+  }
+
+  /** Stores a QoS 1 or 2 packet for every persistent session it matches, then calls done (with the error, if the write failed: no acknowledgement then). */
+  store(packet: PublishPacket, done: (err?: Error | null) => void): void {
+    if (packet.qos === 0) return done();
+    const stamped = Object.assign(packet, { brokerId: this.brokerId, brokerCounter: ++this.counter });
+    this.sessions.subscriptionsByTopic(packet.topic)
+      .then((subs) => this.sessions.outgoingEnqueueCombi(subs, stamped))
+      .then(() => done(), (err: Error) => done(err));
+  }
 }
