@@ -37,7 +37,7 @@ export type BrokerOptions = {
    * site's own broker (MQTT_URL).
    */
   screenAtEdge?: boolean;
-  /** Store a device's QoS 1 message in the persistent sessions before the PUBACK (store-before-ack.ts; default true). */
+  /** Store a device's QoS 1 and 2 messages in the persistent sessions before acknowledging them (store-before-ack.ts; default true). */
   storeBeforeAck?: boolean;
   log?: Logger;
 };
@@ -141,7 +141,7 @@ export async function startBroker(opts: BrokerOptions): Promise<RunningBroker> {
         return;
       }
       const letter = edge ? screenMessage(packet.topic, payload, Date.now()) : null;
-      // With storeBeforeAck, a sound message is on disk in every persistent session before its PUBACK.
+      // With storeBeforeAck, a sound message is on disk in every persistent session before its PUBACK or PUBREC.
       if (!letter) return storeFirst ? storeFirst.store(packet, done) : done();
       edge!.add({ ...letter, gateway: identity.username }, (stored) => {
         if (stored) packet.topic = SCREENED_TOPIC;

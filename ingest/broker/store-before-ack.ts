@@ -13,11 +13,11 @@ import type { SessionStore } from 'aedes-persistence-level';
  * Packet keeps that id and counter, so its own enqueue rewrites the same key with the same bytes
  * and the live delivery updates that entry. The hook waits for one store write and nothing else.
  *
- * An earlier version published through broker.publish() from the hook; that call returns only
+ * An earlier version published through broker.publish() from the hook. That call returns only
  * once every online subscriber's socket has taken the message, so a device's PUBACK waited for
- * the ingest worker to read. After a broker restart the worker's session backlog fills its socket,
- * device publishes then held the emitter's slots while the worker's own PUBACKs and live values
- * queued behind them: delivery stopped until the drain timeout cut the worker, again and again.
+ * the ingest worker to read, and each message passed the emitter twice; the likely cause of the
+ * stalls it showed after broker restarts (the worker's session backlog filling its socket while
+ * device messages held the emitter's slots, until the drain timeout cut the worker).
  *
  * QoS 2: aedes stores the packet in the sender's incoming store, then publishes, then sends
  * PUBREC. A kill between the first two leaves it marked as received but in no session, and the
