@@ -1,32 +1,26 @@
-import http from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { QueryTypes } from 'sequelize';
 import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { applyAction } from '../../api/src/modules/alarms/lifecycle.ts';
-import { attachRealtime } from '../../api/src/realtime/socket.ts';
 import { ROLES, type Role } from '../../shared/schemas/auth.ts';
 import { alarmEventViewSchema, type AlarmEventView } from '../../shared/schemas/alarms.ts';
 import { createAlarmTestApi, instancesOf, onlyDefinition, withoutTimerDefinitions, type AlarmTestApi } from './helpers.ts';
+import { startRealtimeServer, type RealtimeServer } from '../helpers/realtime-server.ts';
 
 let t: AlarmTestApi;
-let server: http.Server;
-let realtime: ReturnType<typeof attachRealtime>;
+let rt: RealtimeServer | undefined;
 let url: string;
 const sockets: Socket[] = [];
 
 beforeAll(async () => {
   t = await createAlarmTestApi();
   await withoutTimerDefinitions(t.sequelize);
-  server = http.createServer(t.app);
-  realtime = attachRealtime(server, t.auth);
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
-  url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  rt = await startRealtimeServer(t.app, t.auth);
+  url = rt.url;
 });
 afterAll(async () => {
   for (const s of sockets) s.disconnect();
-  await realtime?.close();
-  await new Promise((r) => server?.close(r));
+  await rt?.close();
   await t?.close();
 });
 

@@ -1,19 +1,16 @@
 import { EventEmitter } from 'node:events';
-import http from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { QueryTypes } from 'sequelize';
 import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { attachRealtime } from '../../api/src/realtime/socket.ts';
 import type { ProbesOffline } from '../../shared/schemas/internal-topics.ts';
 import type { TankLive } from '../../shared/schemas/readings.ts';
 import type { ClientToServerEvents, ServerToClientEvents } from '../../shared/schemas/socket-events.ts';
 import { createTestApi, type TestApi } from '../helpers/api.ts';
+import { startRealtimeServer, type RealtimeServer } from '../helpers/realtime-server.ts';
 
 // Screens receive only the sites they watch: rooms per site for live values (live:watch).
 let t: TestApi;
-let server: http.Server;
-let realtime: ReturnType<typeof attachRealtime>;
+let rt: RealtimeServer | undefined;
 let url: string;
 const source = new EventEmitter<{ latest: [TankLive[]]; offline: [ProbesOffline] }>();
 const sockets: Socket[] = [];
@@ -33,15 +30,12 @@ beforeAll(async () => {
     `SELECT s.tag AS site, t.id AS tankId, p.id AS probeId, p.tag AS probeTag FROM probes p JOIN tanks t ON t.id = p.tank_id
        JOIN circuits c ON c.id = t.circuit_id JOIN sites s ON s.id = c.site_id WHERE p.active = 1 ORDER BY p.id`, { type: QueryTypes.SELECT });
   tanks.push(...rows);
-  server = http.createServer(t.app);
-  realtime = attachRealtime(server, t.auth, source);
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
-  url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  rt = await startRealtimeServer(t.app, t.auth, source);
+  url = rt.url;
 });
 afterAll(async () => {
   for (const s of sockets) s.disconnect();
-  await realtime?.close();
-  await new Promise((r) => server?.close(r));
+  await rt?.close();
   await t?.close();
 });
 
