@@ -27,7 +27,7 @@ const pad = (n: number, w = 2) => String(n).padStart(w, '0');
 
 type Sample = { tankTag: string; atMs: number; source: string; note: string | null };
 
-function plannedSamples(ctx: DemoContext): Sample[] {
+export function plannedSamples(ctx: DemoContext): Sample[] {
   const { story, timeZone: tz } = ctx;
   const samples: Sample[] = [];
   for (let d = -8; d <= 0; d += 1) {
@@ -39,15 +39,20 @@ function plannedSamples(ctx: DemoContext): Sample[] {
       for (const tankTag of ASSAY_TANKS) samples.push({ tankTag, atMs: at + ASSAY_TANKS.indexOf(tankTag) * 4 * MINUTE_MS, source, note: null });
     }
   }
-  samples.push({
+  const grabs: Sample[] = [];
+  grabs.push({
     tankTag: story.upset.tankTag, atMs: story.upset.fromMs + 25 * MINUTE_MS, source: 'form',
     note: 'Grab sample during the feed upset; titrated within 10 min of sampling',
   });
-  samples.push({
+  grabs.push({
     tankTag: story.drift.tankTag, atMs: story.drift.refittedMs + 90 * MINUTE_MS, source: 'form',
     note: 'Check sample after the B2 probe was cleaned and refitted',
   });
-  return samples;
+  // Seeded at certain minutes of the day, a grab sample falls on the minute of a routine one of
+  // its tank; a tank has one assay per sampling time, so the grab sample (with its note) stays.
+  const key = (x: Sample) => `${x.tankTag}@${x.atMs}`;
+  const grabKeys = new Set(grabs.map(key));
+  return [...samples.filter((x) => !grabKeys.has(key(x))), ...grabs];
 }
 
 export async function seedAssays(ctx: DemoContext): Promise<SeededAssay[]> {
